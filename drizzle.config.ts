@@ -1,0 +1,11 @@
+import { defineConfig } from 'drizzle-kit';
+
+export default defineConfig({
+	schema: './src/lib/server/db/schema.ts',
+	out: './drizzle',
+	dialect: 'sqlite',
+	dbCredentials: { url: process.env.DATABASE_PATH ?? 'data/wakeline.db' },
+	casing: 'snake_case',
+	strict: true,
+	verbose: true
+});
