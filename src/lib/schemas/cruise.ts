@@ -1,0 +1,66 @@
+import { z } from 'zod';
+
+const DEPTH_MODELS = ['stein-stein-1992', 'parsons-sclater-1977', 'half-space'] as const;
+const STATUSES = ['draft', 'planned', 'published', 'at_sea', 'completed'] as const;
+
+/** A datetime-local field read as UTC ("2027-03-01T08:00"). Empty means not set yet. */
+const utcDateTime = z
+	.string()
+	.trim()
+	.refine((s) => s === '' || !Number.isNaN(Date.parse(s + (s.length === 16 ? ':00Z' : ''))), {
+		message: 'Enter a date and time, e.g. 2027-03-01T08:00 (UTC).'
+	})
+	.default('');
+
+export const cruiseSchema = z
+	.object({
+		code: z
+			.string()
+			.trim()
+			.min(2, 'The code needs at least 2 characters.')
+			.max(20, 'Keep the code to 20 characters.')
+			.regex(/^[A-Za-z0-9][A-Za-z0-9._-]*$/, 'Use letters, digits, dots, dashes or underscores.'),
+		title: z.string().trim().min(3, 'Give the cruise a title.').max(200),
+		status: z.enum(STATUSES).default('draft'),
+		vesselId: z.string().default(''),
+		departurePortId: z.string().default(''),
+		returnPortId: z.string().default(''),
+		departureAt: utcDateTime,
+		returnAt: utcDateTime,
+		allocatedDays: z
+			.number({ message: 'Enter a number of days.' })
+			.min(0, 'Days cannot be negative.')
+			.max(400, 'More than 400 days is not a cruise.')
+			.default(0),
+		weatherMarginPct: z
+			.number({ message: 'Enter a percentage.' })
+			.min(0, 'The margin cannot be negative.')
+			.max(100, 'The margin is at most 100 %.')
+			.default(10),
+		depthModel: z.enum(DEPTH_MODELS).default('stein-stein-1992')
+	})
+	.refine((c) => !c.departureAt || !c.returnAt || toUtc(c.returnAt)! > toUtc(c.departureAt)!, {
+		message: 'The return must come after the departure.',
+		path: ['returnAt']
+	});
+
+export type CruiseInput = z.infer<typeof cruiseSchema>;
+
+export function toUtc(s: string): Date | null {
+	if (!s) return null;
+	return new Date(s.length === 16 ? s + ':00Z' : s.endsWith('Z') ? s : s + 'Z');
+}
+
+export function toLocalInput(d: Date | null | undefined): string {
+	return d ? d.toISOString().slice(0, 16) : '';
+}
+
+export const memberInviteSchema = z.object({
+	email: z.email('Enter an e-mail address.').trim().toLowerCase(),
+	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master'])
+});
+
+export const memberRoleSchema = z.object({
+	userId: z.string().min(1),
+	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master'])
+});

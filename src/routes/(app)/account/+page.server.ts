@@ -1,0 +1,59 @@
+import { fail } from '@sveltejs/kit';
+import { message, setError, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { z } from 'zod';
+import { changePasswordSchema, profileSchema, tokenSchema } from '$lib/schemas/auth';
+import { createApiToken, listApiTokens, revokeApiToken } from '$lib/server/auth';
+import { db } from '$lib/server/db';
+import * as guards from '$lib/server/guards';
+import * as users from '$lib/server/users';
+import type { Actions, PageServerLoad } from './$types';
+
+const revokeSchema = z.object({ tokenId: z.string().min(1) });
+
+export const load: PageServerLoad = async (event) => {
+	const user = guards.requireUser(event);
+	return {
+		tokens: listApiTokens(db, user.id),
+		profileForm: await superValidate({ name: user.name }, zod4(profileSchema)),
+		passwordForm: await superValidate(zod4(changePasswordSchema)),
+		tokenForm: await superValidate(zod4(tokenSchema))
+	};
+};
+
+export const actions: Actions = {
+	profile: async (event) => {
+		const user = guards.requireUser(event);
+		const form = await superValidate(event.request, zod4(profileSchema));
+		if (!form.valid) return fail(400, { profileForm: form });
+		users.rename(user.id, form.data.name);
+		return message(form, { type: 'ok', text: 'Name saved.' });
+	},
+	password: async (event) => {
+		const user = guards.requireUser(event);
+		const form = await superValidate(event.request, zod4(changePasswordSchema));
+		if (!form.valid) return fail(400, { passwordForm: form });
+		try {
+			await users.changePassword(user.id, form.data.currentPassword, form.data.password);
+		} catch (e) {
+			if (e instanceof users.DomainError) return setError(form, 'currentPassword', e.message);
+			throw e;
+		}
+		form.data = { currentPassword: '', password: '', confirm: '' };
+		return message(form, { type: 'ok', text: 'Password changed.' });
+	},
+	createToken: async (event) => {
+		const user = guards.requireUser(event);
+		const form = await superValidate(event.request, zod4(tokenSchema));
+		if (!form.valid) return fail(400, { tokenForm: form });
+		const { token } = createApiToken(db, user.id, form.data.name);
+		return { tokenForm: form, newToken: token };
+	},
+	revokeToken: async (event) => {
+		const user = guards.requireUser(event);
+		const form = await superValidate(event.request, zod4(revokeSchema));
+		if (!form.valid || !revokeApiToken(db, user.id, form.data.tokenId))
+			return fail(404, { problem: 'No such token.' });
+		return { done: 'Token revoked.' };
+	}
+};

@@ -1,0 +1,8 @@
+import * as cruises from '$lib/server/cruises';
+import * as guards from '$lib/server/guards';
+import type { PageServerLoad } from './$types';
+
+export const load: PageServerLoad = (event) => {
+	const user = guards.requireUser(event);
+	return { cruises: cruises.listFor(user), canCreate: true };
+};

@@ -1,0 +1,34 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { setError, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { cruiseSchema } from '$lib/schemas/cruise';
+import * as cruises from '$lib/server/cruises';
+import * as guards from '$lib/server/guards';
+import { DomainError } from '$lib/server/users';
+import * as vessels from '$lib/server/vessels';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	guards.requireUser(event);
+	return {
+		form: await superValidate(zod4(cruiseSchema)),
+		vessels: vessels.list(),
+		ports: vessels.ports()
+	};
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		const user = guards.requireUser(event);
+		const form = await superValidate(event.request, zod4(cruiseSchema));
+		if (!form.valid) return fail(400, { form });
+		let id: string;
+		try {
+			id = cruises.create(user.id, form.data);
+		} catch (e) {
+			if (e instanceof DomainError) return setError(form, (e.field ?? '') as 'code', e.message);
+			throw e;
+		}
+		redirect(303, `/cruises/${id}`);
+	}
+};

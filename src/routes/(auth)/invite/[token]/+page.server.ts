@@ -1,0 +1,38 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { setError, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { acceptInvitationSchema } from '$lib/schemas/auth';
+import { createSession, setSessionCookie } from '$lib/server/auth';
+import { db } from '$lib/server/db';
+import * as users from '$lib/server/users';
+import type { Actions, PageServerLoad } from './$types';
+
+// Public by design: the single-use token in the link is the credential.
+export const load: PageServerLoad = async ({ params }) => {
+	const found = users.invitationByToken(params.token);
+	return {
+		problem: found.ok ? null : found.message,
+		email: found.ok ? found.invitation.email : null,
+		hasAccount: found.ok ? !!users.findByEmail(found.invitation.email) : false,
+		form: await superValidate(zod4(acceptInvitationSchema))
+	};
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		const form = await superValidate(event.request, zod4(acceptInvitationSchema));
+		if (!form.valid) return fail(400, { form });
+		let userId: string;
+		try {
+			userId = (
+				await users.acceptInvitation(event.params.token, form.data.name, form.data.password)
+			).id;
+		} catch (e) {
+			if (e instanceof users.DomainError) return setError(form, 'name', e.message);
+			throw e;
+		}
+		const { token, expiresAt } = createSession(db, userId);
+		setSessionCookie(event.cookies, token, expiresAt, event.url.protocol === 'https:');
+		redirect(303, '/cruises');
+	}
+};
