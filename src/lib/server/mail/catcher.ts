@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
 
-export function startCatcher(opts: { port: number; host?: string; dir: string }) {
+export async function startCatcher(opts: { port: number; host?: string; dir: string }) {
 	mkdirSync(opts.dir, { recursive: true });
 	let n = 0;
 	const server = new SMTPServer({
@@ -23,10 +23,23 @@ export function startCatcher(opts: { port: number; host?: string; dir: string })
 			});
 		}
 	});
-	return new Promise<SMTPServer>((resolve, reject) => {
-		server.once('error', reject);
-		server.listen(opts.port, opts.host ?? '127.0.0.1', () => resolve(server));
-	});
+	const listen = (port: number) =>
+		new Promise<number>((resolve, reject) => {
+			server.once('error', reject);
+			server.listen(port, opts.host ?? '127.0.0.1', () => {
+				const addr = server.server.address();
+				resolve(typeof addr === 'object' && addr ? addr.port : port);
+			});
+		});
+	let port: number;
+	try {
+		port = await listen(opts.port);
+	} catch (e) {
+		// Another catcher (or anything) holds the port: take any free one; the caller uses the result.
+		if ((e as NodeJS.ErrnoException).code !== 'EADDRINUSE') throw e;
+		port = await listen(0);
+	}
+	return { server, port };
 }
 
 export interface CaughtMail {

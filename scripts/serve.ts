@@ -1,0 +1,50 @@
+// Runs the built app: migrate, seed the demo once, start the local fakes unless real services are
+// configured, then the adapter-node server. `npm start` calls this after installing and building.
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { config } from '../src/lib/server/config';
+import { migrateDb, openDb } from '../src/lib/server/db/client';
+import { startCatcher } from '../src/lib/server/mail/catcher';
+import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from './demo';
+
+const port = Number(process.env.PORT || 3000);
+const host = process.env.HOST || '0.0.0.0';
+process.env.PORT = String(port);
+process.env.HOST = host;
+process.env.ORIGIN ||= `http://localhost:${port}`;
+// Uploads and forms: adapter-node's default body limit is 512 KiB; plan imports need more.
+process.env.BODY_SIZE_LIMIT ||= String(60 * 1024 * 1024);
+
+const db = openDb(config.databasePath);
+migrateDb(db);
+const seeded = process.env.SEED_DEMO === '0' ? false : await seedDemo(db);
+db.$client.close();
+
+const fakes: string[] = [];
+if (!config.smtpUrl) {
+	const { port: smtpPort } = await startCatcher({
+		port: Number(process.env.MAIL_CATCHER_PORT || 2525),
+		dir: config.mailCatcherDir
+	});
+	process.env.SMTP_URL = `smtp://127.0.0.1:${smtpPort}`;
+	process.env.MAIL_CATCHER = '1';
+	fakes.push(`mail catcher on 127.0.0.1:${smtpPort} (read it at /admin/mail)`);
+}
+
+const entry = resolve('build/index.js');
+if (!existsSync(entry)) {
+	console.error('No build found. Run `npm run build` first (npm start does it for you).');
+	process.exit(1);
+}
+await import(pathToFileURL(entry).href);
+
+const shown = process.env.ORIGIN;
+console.log(`
+  Wakeline is running at ${shown}
+  Database: ${resolve(config.databasePath)}${seeded ? ' (demo seeded now)' : ''}
+  ${fakes.length ? 'Local fakes: ' + fakes.join('; ') : 'Using the configured SMTP server'}
+
+  Demo sign-ins (password for all: ${DEMO_PASSWORD})
+${DEMO_USERS.map((u) => `    ${u.email.padEnd(26)} ${u.what}`).join('\n')}
+`);
