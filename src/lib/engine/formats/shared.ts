@@ -209,7 +209,11 @@ function toNumber(v: unknown): number {
 }
 
 /** One position given as lon, lat. Catches the classic lat,lon mix-up. */
-export function checkLonLat(lonRaw: unknown, latRaw: unknown): Checked<LonLat> {
+export function checkLonLat(
+	lonRaw: unknown,
+	latRaw: unknown,
+	expected = 'lon,lat'
+): Checked<LonLat> {
 	const lon = toNumber(lonRaw);
 	const lat = toNumber(latRaw);
 	if (!Number.isFinite(lon) || !Number.isFinite(lat)) {
@@ -222,7 +226,7 @@ export function checkLonLat(lonRaw: unknown, latRaw: unknown): Checked<LonLat> {
 		if (Math.abs(lon) <= 90) {
 			return {
 				ok: false,
-				message: `coordinates look swapped, expected lon,lat (got ${lonRaw}, ${latRaw})`
+				message: `coordinates look swapped, expected ${expected} (got lon ${lonRaw}, lat ${latRaw})`
 			};
 		}
 		return { ok: false, message: `latitude ${lat} is outside ±90°` };

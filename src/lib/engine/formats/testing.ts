@@ -210,3 +210,34 @@ export function antimeridianPlan(): PlanDoc {
 		stations: [{ name: 'CTD east', kind: 'ctd', position: [-179.9, -20.1], params: {} }]
 	};
 }
+
+export interface XmlElementLike {
+	local: string;
+	children: XmlElementLike[];
+}
+
+/**
+ * Order and multiplicity problems of an element's children against an XSD <sequence>: each
+ * child must appear in sequence order, and names not in `repeatable` at most once.
+ */
+export function sequenceViolations(
+	node: XmlElementLike,
+	sequence: string[],
+	repeatable: string[] = []
+): string[] {
+	const problems: string[] = [];
+	let last = -1;
+	const seen = new Set<string>();
+	for (const c of node.children) {
+		const at = sequence.indexOf(c.local);
+		if (at < 0) problems.push(`<${c.local}> is not allowed in <${node.local}>`);
+		else if (at < last)
+			problems.push(`<${c.local}> comes after <${sequence[last]}> in <${node.local}>`);
+		else last = at;
+		if (seen.has(c.local) && !repeatable.includes(c.local)) {
+			problems.push(`<${c.local}> repeated in <${node.local}>`);
+		}
+		seen.add(c.local);
+	}
+	return problems;
+}
