@@ -102,9 +102,27 @@ export function decimal(n: number): string {
 	);
 }
 
+/** Letters that Unicode decomposition does not reduce to ASCII. */
+const TRANSLITERATE: Record<string, string> = {
+	Æ: 'AE',
+	æ: 'ae',
+	Ø: 'O',
+	ø: 'o',
+	ß: 'ss',
+	Þ: 'Th',
+	þ: 'th',
+	Ð: 'D',
+	ð: 'd',
+	Œ: 'OE',
+	œ: 'oe',
+	Ł: 'L',
+	ł: 'l'
+};
+
 /** A file-system and ECDIS friendly base name: letters, digits, dot, dash, underscore. */
 export function fileBaseName(name: string): string {
 	const base = name
+		.replace(/[ÆæØøßÞþÐðŒœŁł]/g, (c) => TRANSLITERATE[c] ?? c)
 		.normalize('NFKD')
 		.replace(/[\u0300-\u036f]/g, '')
 		.replace(/[^A-Za-z0-9._-]+/g, '_')
@@ -591,4 +609,12 @@ export function paramEntries(
 			? { name, type: 'number', value: decimal(v) }
 			: { name, type: 'string', value: v }
 	);
+}
+
+/** A plan a format cannot express (e.g. an RTZ route needs two waypoints). */
+export class ExportError extends Error {
+	constructor(message: string) {
+		super(message);
+		this.name = 'ExportError';
+	}
 }
