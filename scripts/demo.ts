@@ -10,8 +10,18 @@ import { newId } from '../src/lib/server/ids';
 export const DEMO_PASSWORD = 'ridge-crest-2027';
 
 export const DEMO_USERS = [
-	{ email: 'admin@example.org', name: 'Marit Holloway', role: 'admin', what: 'marine office (admin)' },
-	{ email: 'chief@example.org', name: 'Dr Tove Achterberg', role: 'member', what: 'chief scientist' },
+	{
+		email: 'admin@example.org',
+		name: 'Marit Holloway',
+		role: 'admin',
+		what: 'marine office (admin)'
+	},
+	{
+		email: 'chief@example.org',
+		name: 'Dr Tove Achterberg',
+		role: 'member',
+		what: 'chief scientist'
+	},
 	{ email: 'participant@example.org', name: 'Rafael Quenby', role: 'member', what: 'participant' },
 	{ email: 'agent@example.org', name: 'Sunniva Okoro', role: 'member', what: 'port agent' },
 	{ email: 'master@example.org', name: 'Capt. Elric Vance', role: 'member', what: 'master' }
@@ -26,11 +36,30 @@ export async function seedDemo(db: Db): Promise<boolean> {
 
 	const ids = Object.fromEntries(DEMO_USERS.map((u) => [u.email, newId()]));
 	const party = [
-		'Asha Lindqvist', 'Bram Ostrowski', 'Carmen Delacroix-Ng', 'Dmitri Fairweather',
-		'Eilidh Marchetti', 'Fumiko Adeyemi', 'Gustav Thorne', 'Hana Petrakis', 'Ivo Blackwood',
-		'Jorunn Castellanos', 'Kofi Lindgren', 'Leilani Brandt', 'Mateus Haverford', 'Nadia Sorensen',
-		'Oskar Villanueva', 'Priya Halvorsen', 'Quentin Mbeki', 'Rosalind Fjeld', 'Soren Achebe',
-		'Talia Winterbourne', 'Ulrich Nakamura', 'Vesna Kowalczyk', 'Wendell Abara'
+		'Asha Lindqvist',
+		'Bram Ostrowski',
+		'Carmen Delacroix-Ng',
+		'Dmitri Fairweather',
+		'Eilidh Marchetti',
+		'Fumiko Adeyemi',
+		'Gustav Thorne',
+		'Hana Petrakis',
+		'Ivo Blackwood',
+		'Jorunn Castellanos',
+		'Kofi Lindgren',
+		'Leilani Brandt',
+		'Mateus Haverford',
+		'Nadia Sorensen',
+		'Oskar Villanueva',
+		'Priya Halvorsen',
+		'Quentin Mbeki',
+		'Rosalind Fjeld',
+		'Soren Achebe',
+		'Talia Winterbourne',
+		'Ulrich Nakamura',
+		'Vesna Kowalczyk',
+		'Wendell Abara',
+		'Yannick Osei'
 	].map((name) => ({
 		id: newId(),
 		name,
@@ -87,8 +116,22 @@ export async function seedDemo(db: Db): Promise<boolean> {
 		const bellmoor = newId();
 		tx.insert(t.port)
 			.values([
-				{ id: ardent, name: 'Port Ardent', countryCode: 'XA', lon: -150.2, lat: -31.4, utcOffsetMinutes: -600 },
-				{ id: bellmoor, name: 'Bellmoor Harbour', countryCode: 'XB', lon: -141.6, lat: -27.9, utcOffsetMinutes: -540 }
+				{
+					id: ardent,
+					name: 'Port Ardent',
+					countryCode: 'XA',
+					lon: -150.2,
+					lat: -31.4,
+					utcOffsetMinutes: -600
+				},
+				{
+					id: bellmoor,
+					name: 'Bellmoor Harbour',
+					countryCode: 'XB',
+					lon: -141.6,
+					lat: -27.9,
+					utcOffsetMinutes: -540
+				}
 			])
 			.run();
 
@@ -131,45 +174,146 @@ export async function seedDemo(db: Db): Promise<boolean> {
 			[ids['participant@example.org'], 'participant'],
 			[ids['agent@example.org'], 'port_agent'],
 			[ids['master@example.org'], 'master'],
-			...party.map((p) => [p.id, 'participant'] as [string, t.CruiseRole])
+			// party[0] runs the other cruise and holds no role on this one.
+			...party.slice(1).map((p) => [p.id, 'participant'] as [string, t.CruiseRole])
 		];
-		for (const [userId, role] of roles) tx.insert(t.cruiseMember).values({ cruiseId, userId, role }).run();
+		for (const [userId, role] of roles)
+			tx.insert(t.cruiseMember).values({ cruiseId, userId, role }).run();
 
 		const leg1 = newId();
 		const leg2 = newId();
 		tx.insert(t.leg)
 			.values([
-				{ id: leg1, cruiseId, seq: 1, name: 'Leg 1 — northern segment', fromPortId: ardent, toPortId: bellmoor, startAt: new Date(sail), endAt: new Date(portCall) },
-				{ id: leg2, cruiseId, seq: 2, name: 'Leg 2 — southern segment and flanks', fromPortId: bellmoor, toPortId: ardent, startAt: new Date(portCall + 1.5 * DAY), endAt: new Date(home) }
+				{
+					id: leg1,
+					cruiseId,
+					seq: 1,
+					name: 'Leg 1 — northern segment',
+					fromPortId: ardent,
+					toPortId: bellmoor,
+					startAt: new Date(sail),
+					endAt: new Date(portCall)
+				},
+				{
+					id: leg2,
+					cruiseId,
+					seq: 2,
+					name: 'Leg 2 — southern segment and flanks',
+					fromPortId: bellmoor,
+					toPortId: ardent,
+					startAt: new Date(portCall + 1.5 * DAY),
+					endAt: new Date(home)
+				}
 			])
 			.run();
 
 		// The ridge: two spreading segments offset ~35 km by a transform fault near 30.5°S.
-		const north: LonLat[] = [[-146.05, -29.2], [-146.0, -29.7], [-145.93, -30.2], [-145.9, -30.45]];
-		const south: LonLat[] = [[-145.5, -30.55], [-145.46, -31.0], [-145.4, -31.5], [-145.35, -31.95]];
+		const north: LonLat[] = [
+			[-146.05, -29.2],
+			[-146.0, -29.7],
+			[-145.93, -30.2],
+			[-145.9, -30.45]
+		];
+		const south: LonLat[] = [
+			[-145.5, -30.55],
+			[-145.46, -31.0],
+			[-145.4, -31.5],
+			[-145.35, -31.95]
+		];
 		tx.insert(t.ridgeSegment)
 			.values([
-				{ id: newId(), cruiseId, name: 'Sallow Ridge north', axis: north, fullRateMmYr: 38, asymmetry: 0.5, potentialTemperatureC: 1330 },
-				{ id: newId(), cruiseId, name: 'Sallow Ridge south', axis: south, fullRateMmYr: 38, asymmetry: 0.55, potentialTemperatureC: 1350, axialDepthM: 2750 }
+				{
+					id: newId(),
+					cruiseId,
+					name: 'Sallow Ridge north',
+					axis: north,
+					fullRateMmYr: 38,
+					asymmetry: 0.5,
+					potentialTemperatureC: 1330
+				},
+				{
+					id: newId(),
+					cruiseId,
+					name: 'Sallow Ridge south',
+					axis: south,
+					fullRateMmYr: 38,
+					asymmetry: 0.55,
+					potentialTemperatureC: 1350,
+					axialDepthM: 2750
+				}
 			])
 			.run();
 
 		// Cross-axis multibeam lines over both segments, along-axis lines, and a magnetics line.
-		const lines: { name: string; coords: LonLat[]; purpose: (typeof t.LINE_PURPOSES)[number]; speed: number }[] = [];
+		const lines: {
+			name: string;
+			coords: LonLat[];
+			purpose: (typeof t.LINE_PURPOSES)[number];
+			speed: number;
+		}[] = [];
 		for (let i = 0; i < 5; i++) {
 			const lat = -29.4 - i * 0.22;
-			lines.push({ name: `N-X${i + 1}`, coords: [[-146.75, lat], [-145.25, lat]], purpose: 'multibeam', speed: 8 });
+			lines.push({
+				name: `N-X${i + 1}`,
+				coords: [
+					[-146.75, lat],
+					[-145.25, lat]
+				],
+				purpose: 'multibeam',
+				speed: 8
+			});
 		}
 		for (let i = 0; i < 4; i++) {
 			const lat = -30.8 - i * 0.25;
-			lines.push({ name: `S-X${i + 1}`, coords: [[-146.2, lat], [-144.7, lat]], purpose: 'multibeam', speed: 8 });
+			lines.push({
+				name: `S-X${i + 1}`,
+				coords: [
+					[-146.2, lat],
+					[-144.7, lat]
+				],
+				purpose: 'multibeam',
+				speed: 8
+			});
 		}
-		lines.push({ name: 'N-AX', coords: [[-146.02, -29.25], [-145.95, -30.4]], purpose: 'multibeam', speed: 7 });
-		lines.push({ name: 'S-AX', coords: [[-145.48, -30.6], [-145.37, -31.9]], purpose: 'multibeam', speed: 7 });
-		lines.push({ name: 'MAG-1', coords: [[-147.5, -30.5], [-144.0, -30.5]], purpose: 'magnetics', speed: 10 });
+		lines.push({
+			name: 'N-AX',
+			coords: [
+				[-146.02, -29.25],
+				[-145.95, -30.4]
+			],
+			purpose: 'multibeam',
+			speed: 7
+		});
+		lines.push({
+			name: 'S-AX',
+			coords: [
+				[-145.48, -30.6],
+				[-145.37, -31.9]
+			],
+			purpose: 'multibeam',
+			speed: 7
+		});
+		lines.push({
+			name: 'MAG-1',
+			coords: [
+				[-147.5, -30.5],
+				[-144.0, -30.5]
+			],
+			purpose: 'magnetics',
+			speed: 10
+		});
 		for (const l of lines)
 			tx.insert(t.surveyLine)
-				.values({ id: newId(), cruiseId, name: l.name, coords: l.coords, purpose: l.purpose, surveySpeedKn: l.speed, overlapPct: 30, ihoOrder: '2' })
+				.values({
+					id: newId(),
+					cruiseId,
+					name: l.name,
+					coords: l.coords,
+					purpose: l.purpose,
+					surveySpeedKn: l.speed,
+					overlapPct: 30,
+					ihoOrder: '2'
+				})
 				.run();
 
 		tx.insert(t.surveyArea)
@@ -177,16 +321,46 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				id: newId(),
 				cruiseId,
 				name: 'Transform box',
-				ring: [[-146.1, -30.3], [-145.3, -30.3], [-145.3, -30.7], [-146.1, -30.7], [-146.1, -30.3]],
+				ring: [
+					[-146.1, -30.3],
+					[-145.3, -30.3],
+					[-145.3, -30.7],
+					[-146.1, -30.7],
+					[-146.1, -30.3]
+				],
 				overlapPct: 30,
 				surveySpeedKn: 8
 			})
 			.run();
 
-		const stations: { name: string; kind: t.StationKind; lon: number; lat: number; params: Record<string, number | string> }[] = [
-			{ name: 'CTD-01', kind: 'ctd', lon: -145.98, lat: -29.9, params: { bottleStops: 12, deckMin: 30 } },
-			{ name: 'CTD-02', kind: 'ctd', lon: -145.42, lat: -31.2, params: { bottleStops: 12, deckMin: 30 } },
-			{ name: 'CTD-03', kind: 'ctd', lon: -146.6, lat: -29.8, params: { bottleStops: 6, deckMin: 30 } },
+		const stations: {
+			name: string;
+			kind: t.StationKind;
+			lon: number;
+			lat: number;
+			params: Record<string, number | string>;
+		}[] = [
+			{
+				name: 'CTD-01',
+				kind: 'ctd',
+				lon: -145.98,
+				lat: -29.9,
+				params: { bottleStops: 12, deckMin: 30 }
+			},
+			{
+				name: 'CTD-02',
+				kind: 'ctd',
+				lon: -145.42,
+				lat: -31.2,
+				params: { bottleStops: 12, deckMin: 30 }
+			},
+			{
+				name: 'CTD-03',
+				kind: 'ctd',
+				lon: -146.6,
+				lat: -29.8,
+				params: { bottleStops: 6, deckMin: 30 }
+			},
 			{ name: 'DR-01', kind: 'dredge', lon: -145.95, lat: -30.1, params: { bottomH: 1.5 } },
 			{ name: 'DR-02', kind: 'dredge', lon: -145.7, lat: -30.5, params: { bottomH: 1.5 } },
 			{ name: 'DR-03', kind: 'dredge', lon: -145.38, lat: -31.6, params: { bottomH: 1.5 } },
@@ -195,43 +369,118 @@ export async function seedDemo(db: Db): Promise<boolean> {
 			{ name: 'DIVE-01', kind: 'dive', lon: -145.96, lat: -29.98, params: { blockH: 8 } },
 			{ name: 'DIVE-02', kind: 'dive', lon: -145.44, lat: -31.05, params: { blockH: 8 } }
 		];
-		for (const s of stations) tx.insert(t.station).values({ id: newId(), cruiseId, ...s }).run();
+		for (const s of stations)
+			tx.insert(t.station)
+				.values({ id: newId(), cruiseId, ...s })
+				.run();
 
 		// Science party: 24 berths; leg 1 has 22 confirmed and 2 waitlisted, leg 2 is filling up.
-		const applicants = [ids['participant@example.org'], ...party.map((p) => p.id)];
+		const applicants = [ids['participant@example.org'], ...party.slice(1).map((p) => p.id)];
 		applicants.forEach((userId, i) => {
 			const status = i < 22 ? 'confirmed' : 'waitlisted';
 			tx.insert(t.berthApplication)
-				.values({ id: newId(), cruiseId, legId: leg1, userId, status, decidedById: ids['chief@example.org'], decidedAt: new Date(sail - 60 * DAY) })
+				.values({
+					id: newId(),
+					cruiseId,
+					legId: leg1,
+					userId,
+					status,
+					decidedById: ids['chief@example.org'],
+					decidedAt: new Date(sail - 60 * DAY)
+				})
 				.run();
 			if (i < 15)
 				tx.insert(t.berthApplication)
-					.values({ id: newId(), cruiseId, legId: leg2, userId, status: i < 12 ? 'confirmed' : 'applied' })
+					.values({
+						id: newId(),
+						cruiseId,
+						legId: leg2,
+						userId,
+						status: i < 12 ? 'confirmed' : 'applied'
+					})
 					.run();
 		});
 
 		const issued = new Date(sail - 45 * DAY);
 		tx.insert(t.invoice)
 			.values([
-				{ id: newId(), cruiseId, number: 'MT27-03-001', kind: 'port_call_estimate', description: 'Port call Bellmoor Harbour — disbursement estimate', amountMinor: 1_420_000, currency: 'EUR', status: 'paid', issuedAt: issued, dueAt: new Date(issued.getTime() + 30 * DAY), paidAt: new Date(issued.getTime() + 9 * DAY) },
-				{ id: newId(), cruiseId, number: 'MT27-03-002', kind: 'ship_time', description: 'Ship time, leg 1 — 15 operating days at EUR 38,500', amountMinor: 15 * 3_850_000, currency: 'EUR', status: 'issued', issuedAt: issued, dueAt: new Date(sail - 7 * DAY) },
-				{ id: newId(), cruiseId, number: 'MT27-03-003', kind: 'recharge', description: 'Science-party recharge: shipping of the dredge kit', amountMinor: 312_500, currency: 'EUR', status: 'draft' }
+				{
+					id: newId(),
+					cruiseId,
+					number: 'MT27-03-001',
+					kind: 'port_call_estimate',
+					description: 'Port call Bellmoor Harbour — disbursement estimate',
+					amountMinor: 1_420_000,
+					currency: 'EUR',
+					status: 'paid',
+					issuedAt: issued,
+					dueAt: new Date(issued.getTime() + 30 * DAY),
+					paidAt: new Date(issued.getTime() + 9 * DAY)
+				},
+				{
+					id: newId(),
+					cruiseId,
+					number: 'MT27-03-002',
+					kind: 'ship_time',
+					description: 'Ship time, leg 1 — 15 operating days at EUR 38,500',
+					amountMinor: 15 * 3_850_000,
+					currency: 'EUR',
+					status: 'issued',
+					issuedAt: issued,
+					dueAt: new Date(sail - 7 * DAY)
+				},
+				{
+					id: newId(),
+					cruiseId,
+					number: 'MT27-03-003',
+					kind: 'recharge',
+					description: 'Science-party recharge: shipping of the dredge kit',
+					amountMinor: 312_500,
+					currency: 'EUR',
+					status: 'draft'
+				}
 			])
 			.run();
 
 		tx.insert(t.clearance)
-			.values({ id: newId(), cruiseId, coastalState: 'Republic of Xandera (invented)', leadMonths: 6, status: 'submitted', submittedAt: new Date(sail - 200 * DAY), notes: 'Request lodged through the operator office.' })
+			.values({
+				id: newId(),
+				cruiseId,
+				coastalState: 'Republic of Xandera (invented)',
+				leadMonths: 6,
+				status: 'submitted',
+				submittedAt: new Date(sail - 200 * DAY),
+				notes: 'Request lodged through the operator office.'
+			})
 			.run();
 
 		const sentAt = new Date(sail - 40 * DAY);
-		for (const email of ['chief@example.org', 'participant@example.org', 'agent@example.org', 'master@example.org'])
+		for (const email of [
+			'chief@example.org',
+			'participant@example.org',
+			'agent@example.org',
+			'master@example.org'
+		])
 			tx.insert(t.notice)
-				.values({ id: newId(), cruiseId, kind: 'schedule', toAddress: email, subject: 'MT27-03 schedule planned: sails 3 May 2027 08:00 UTC from Port Ardent', text: 'The cruise MT27-03 is planned. Sailing 2027-05-03 08:00 UTC from Port Ardent; port call at Bellmoor Harbour 2027-05-17; home 2027-05-30.', status: 'sent', attempts: 1, nextAttemptAt: sentAt, sentAt, createdAt: sentAt })
+				.values({
+					id: newId(),
+					cruiseId,
+					kind: 'schedule',
+					toAddress: email,
+					subject: 'MT27-03 schedule planned: sails 3 May 2027 08:00 UTC from Port Ardent',
+					text: 'The cruise MT27-03 is planned. Sailing 2027-05-03 08:00 UTC from Port Ardent; port call at Bellmoor Harbour 2027-05-17; home 2027-05-30.',
+					status: 'sent',
+					attempts: 1,
+					nextAttemptAt: sentAt,
+					sentAt,
+					createdAt: sentAt
+				})
 				.run();
 	});
 	return true;
 }
 
 export function demoCruiseId(db: Db): string | undefined {
-	return db.select({ id: t.cruise.id }).from(t.cruise).where(eq(t.cruise.code, 'MT27-03')).get()?.id;
+	return db.select({ id: t.cruise.id }).from(t.cruise).where(eq(t.cruise.code, 'MT27-03')).get()
+		?.id;
 }

@@ -22,11 +22,19 @@ const seeded = process.env.SEED_DEMO === '0' ? false : await seedDemo(db);
 db.$client.close();
 
 const fakes: string[] = [];
+const closers: (() => void)[] = [];
+// adapter-node closes its HTTP server on SIGTERM/SIGINT; the fakes must close too or the process lingers.
+for (const signal of ['SIGTERM', 'SIGINT'] as const)
+	process.once(signal, () => {
+		for (const close of closers) close();
+		setTimeout(() => process.exit(0), 2000).unref();
+	});
 if (!config.smtpUrl) {
-	const { port: smtpPort } = await startCatcher({
+	const { server: catcher, port: smtpPort } = await startCatcher({
 		port: Number(process.env.MAIL_CATCHER_PORT || 2525),
 		dir: config.mailCatcherDir
 	});
+	closers.push(() => catcher.close());
 	process.env.SMTP_URL = `smtp://127.0.0.1:${smtpPort}`;
 	process.env.MAIL_CATCHER = '1';
 	fakes.push(`mail catcher on 127.0.0.1:${smtpPort} (read it at /admin/mail)`);

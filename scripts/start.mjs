@@ -6,7 +6,10 @@ import { existsSync } from 'node:fs';
 
 const run = (cmd) => execSync(cmd, { stdio: 'inherit' });
 
-if (!existsSync('node_modules/.package-lock.json') || !existsSync('node_modules/better-sqlite3/build')) {
+if (
+	!existsSync('node_modules/.package-lock.json') ||
+	!existsSync('node_modules/better-sqlite3/build')
+) {
 	console.log('Installing dependencies (npm ci)…');
 	run('npm ci --no-audit --no-fund');
 }

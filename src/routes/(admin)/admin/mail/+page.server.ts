@@ -27,7 +27,7 @@ export const load: PageServerLoad = async (event) => {
 		.all();
 	return {
 		outbox,
-		catcherInUse: !config.smtpUrl,
-		caught: config.smtpUrl ? [] : await readCaught(config.mailCatcherDir, 50)
+		catcherInUse: config.catcherInUse,
+		caught: config.catcherInUse ? await readCaught(config.mailCatcherDir, 50) : []
 	};
 };
