@@ -94,7 +94,7 @@ export interface Caught {
 }
 
 export async function caughtMail(mailDir: string): Promise<Caught[]> {
-	let files: string[] = [];
+	let files: string[];
 	try {
 		files = readdirSync(mailDir)
 			.filter((f) => f.endsWith('.eml'))

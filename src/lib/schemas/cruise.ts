@@ -57,7 +57,7 @@ export function toLocalInput(d: Date | null | undefined): string {
 
 export const memberInviteSchema = z.object({
 	email: z.email('Enter an e-mail address.').trim().toLowerCase(),
-	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master'])
+	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master']).default('participant')
 });
 
 export const memberRoleSchema = z.object({
