@@ -1,0 +1,99 @@
+// Plan features as the API takes them: GeoJSON geometry (WGS84, [lon, lat]) plus settings per kind.
+// Coordinates are checked here so that a bad position is refused with its place named.
+import { z } from 'zod';
+
+const finite = z.number().refine(Number.isFinite, 'must be a finite number');
+
+/** A [lon, lat] position; says when the pair looks swapped. */
+export const position = z
+	.tuple([finite, finite])
+	.rest(finite)
+	.superRefine(([lon, lat], ctx) => {
+		if (Math.abs(lat) > 90) {
+			ctx.addIssue({
+				code: 'custom',
+				message:
+					Math.abs(lon) <= 90
+						? `latitude ${lat} is beyond ±90; positions are [longitude, latitude] — swapped?`
+						: `latitude ${lat} is beyond ±90`
+			});
+		}
+		if (Math.abs(lon) > 180)
+			ctx.addIssue({ code: 'custom', message: `longitude ${lon} is beyond ±180` });
+	})
+	.transform(([lon, lat]) => [lon, lat] as [number, number]);
+
+export const lineString = z.object({
+	type: z.literal('LineString'),
+	coordinates: z.array(position).min(2, 'a line needs at least two positions')
+});
+
+export const polygon = z.object({
+	type: z.literal('Polygon'),
+	coordinates: z
+		.array(z.array(position).min(4, 'a ring needs at least four positions (closed)'))
+		.min(1, 'a polygon needs a ring')
+});
+
+export const point = z.object({ type: z.literal('Point'), coordinates: position });
+
+export const ridgeProps = z.object({
+	fullRateMmYr: z.number().positive('the full spreading rate must be above 0').max(250),
+	asymmetry: z.number().min(0).max(1).default(0.5),
+	potentialTemperatureC: z.number().min(1100).max(1700).nullable().default(null),
+	axialDepthM: z.number().min(0).max(8000).nullable().default(null)
+});
+
+export const lineProps = z.object({
+	purpose: z.enum(['multibeam', 'magnetics', 'gravity', 'seismic']).default('multibeam'),
+	surveySpeedKn: z.number().positive('the survey speed must be above 0').max(20).default(8),
+	overlapPct: z.number().min(0).max(90).default(30),
+	ihoOrder: z.enum(['exclusive', 'special', '1a', '1b', '2']).default('2')
+});
+
+export const areaProps = z.object({
+	overlapPct: z.number().min(0).max(90).default(30),
+	surveySpeedKn: z.number().positive().max(20).default(8)
+});
+
+export const stationProps = z.object({
+	stationKind: z.enum(['ctd', 'dredge', 'core', 'dive']),
+	params: z.record(z.string(), z.union([z.number(), z.string()])).default({})
+});
+
+const name = z.string().trim().min(1, 'give it a name').max(80);
+
+export const newFeatureSchema = z.discriminatedUnion('kind', [
+	z.object({ kind: z.literal('ridge'), name, geometry: lineString, properties: ridgeProps }),
+	z.object({
+		kind: z.literal('line'),
+		name,
+		geometry: lineString,
+		properties: lineProps.default(lineProps.parse({}))
+	}),
+	z.object({
+		kind: z.literal('area'),
+		name,
+		geometry: polygon,
+		properties: areaProps.default(areaProps.parse({}))
+	}),
+	z.object({ kind: z.literal('station'), name, geometry: point, properties: stationProps })
+]);
+export type NewFeature = z.infer<typeof newFeatureSchema>;
+
+export const featurePatchSchema = z.object({
+	name: name.optional(),
+	geometry: z.union([lineString, polygon, point]).optional(),
+	properties: z.record(z.string(), z.unknown()).optional()
+});
+export type FeaturePatch = z.infer<typeof featurePatchSchema>;
+
+export const bulkEditSchema = z.object({
+	ids: z.array(z.string()).min(1, 'choose at least one line'),
+	properties: z
+		.object({
+			surveySpeedKn: z.number().positive().max(20).optional(),
+			overlapPct: z.number().min(0).max(90).optional()
+		})
+		.refine((p) => p.surveySpeedKn !== undefined || p.overlapPct !== undefined, 'nothing to change')
+});
