@@ -154,6 +154,13 @@ export const cruise = sqliteTable('cruise', {
 	returnAt: integer({ mode: 'timestamp_ms' }),
 	allocatedDays: real().notNull().default(0),
 	weatherMarginPct: real().notNull().default(10),
+	// When set, the weather margin is this many days instead of a share of the sea time.
+	weatherMarginDays: real(),
+	// Timeline settings (hours): turning between consecutive survey lines, alongside before sailing
+	// and after returning.
+	turnH: real().notNull().default(0.5),
+	mobilisationH: real().notNull().default(24),
+	demobilisationH: real().notNull().default(12),
 	depthModel: text({ enum: DEPTH_MODELS }).notNull().default('stein-stein-1992'),
 	createdById: text().references(() => user.id, { onDelete: 'set null' }),
 	createdAt: createdAt(),
@@ -430,6 +437,84 @@ export const clearance = sqliteTable('clearance', {
 	createdAt: createdAt()
 });
 
+// The plan items that lie in a coastal state's waters: the first of them in the timeline dates the
+// first entry, from which the clearance's due date is counted back.
+export const clearanceItem = sqliteTable(
+	'clearance_item',
+	{
+		clearanceId: text()
+			.notNull()
+			.references(() => clearance.id, { onDelete: 'cascade' }),
+		planItemId: text()
+			.notNull()
+			.references(() => planItem.id, { onDelete: 'cascade' })
+	},
+	(t) => [uniqueIndex('clearance_item_pk').on(t.clearanceId, t.planItemId)]
+);
+
+// Ship's clock changes added by the chief scientist; before the first, the departure port's offset.
+export const clockChange = sqliteTable(
+	'clock_change',
+	{
+		id: id(),
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		at: integer({ mode: 'timestamp_ms' }).notNull(),
+		utcOffsetMinutes: integer().notNull(),
+		note: text(),
+		createdAt: createdAt()
+	},
+	(t) => [index('clock_change_cruise_idx').on(t.cruiseId, t.at)]
+);
+
+export const DEADLINE_KINDS = [
+	'clearance',
+	'personnel',
+	'medical',
+	'cargo',
+	'report',
+	'other'
+] as const;
+export type DeadlineKind = (typeof DEADLINE_KINDS)[number];
+
+// The cruise's checklist: each item falls a number of days before (negative) or after sailing or
+// return, so it moves with the schedule.
+export const deadline = sqliteTable(
+	'deadline',
+	{
+		id: id(),
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		title: text().notNull(),
+		kind: text({ enum: DEADLINE_KINDS }).notNull().default('other'),
+		anchor: text({ enum: ['sailing', 'return'] })
+			.notNull()
+			.default('sailing'),
+		offsetDays: integer().notNull(),
+		doneAt: integer({ mode: 'timestamp_ms' }),
+		createdAt: createdAt()
+	},
+	(t) => [index('deadline_cruise_idx').on(t.cruiseId)]
+);
+
+// Calendar bookkeeping: a stable key per exported item, the digest of what was last exported under
+// it and the SEQUENCE number (RFC 5545 §3.8.7.4), raised whenever the digest changes.
+export const calendarEntry = sqliteTable(
+	'calendar_entry',
+	{
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		key: text().notNull(),
+		digest: text().notNull(),
+		sequence: integer().notNull().default(0),
+		updatedAt: createdAt()
+	},
+	(t) => [uniqueIndex('calendar_entry_pk').on(t.cruiseId, t.key)]
+);
+
 export const auditLog = sqliteTable(
 	'audit_log',
 	{
@@ -463,3 +548,7 @@ export type Invoice = typeof invoice.$inferSelect;
 export type Payment = typeof payment.$inferSelect;
 export type Notice = typeof notice.$inferSelect;
 export type Clearance = typeof clearance.$inferSelect;
+export type ClearanceItem = typeof clearanceItem.$inferSelect;
+export type ClockChange = typeof clockChange.$inferSelect;
+export type Deadline = typeof deadline.$inferSelect;
+export type CalendarEntry = typeof calendarEntry.$inferSelect;
