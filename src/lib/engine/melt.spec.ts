@@ -155,6 +155,9 @@ describe('decompression melting column', () => {
 		expect(meltColumn(1333)).toBe(meltColumn(1333));
 		expect(meltColumn(1333)).not.toBe(meltColumn(1333, { model: 'katz-2003' }));
 		expect(() => meltColumn(Number.NaN)).toThrow(RangeError);
+		// beyond the calibrated solidi
+		expect(() => meltColumn(1650)).toThrow(RangeError);
+		expect(meltColumn(1600, { model: 'katz-2003' }).solidusPressureGPa).toBeLessThan(7.5);
 	});
 });
 
@@ -185,7 +188,8 @@ describe('Airy isostasy, inverse and sediment', () => {
 		const axial = impliedFromAxialDepth(2600 - 2290.75, 2600);
 		expect(Math.abs(axial.crustKm - 20)).toBeLessThan(0.01);
 		// outside what the model makes over the search range → no temperature
-		expect(potentialTemperatureForCrust(0.001)).toBeNull();
+		expect(potentialTemperatureForCrust(0)).toBeNull();
+		expect(impliedFromResidualDepth(3000).potentialTemperatureC).toBeNull();
 		expect(potentialTemperatureForCrust(crustThicknessKm(TP_SEARCH_RANGE_C[1]) + 1)).toBeNull();
 	});
 

@@ -191,6 +191,13 @@ export interface MeltColumn {
 	topMeltFraction: number;
 }
 
+/**
+ * Hottest potential temperature accepted (°C). Hotter adiabats first meet the solidus deeper than
+ * ~5–7 GPa, beyond the calibration of both parameterisations (the M&B88 solidus then flattens and
+ * the Katz quadratic turns over, so the adiabat may never cross it).
+ */
+export const MAX_POTENTIAL_TEMPERATURE_C = 1600;
+
 const cache = new Map<string, MeltColumn>();
 const CACHE_LIMIT = 512;
 
@@ -205,7 +212,9 @@ const CACHE_LIMIT = 512;
 export function meltColumn(tpC: number, options: MeltColumnOptions = {}): MeltColumn {
 	const modelId = options.model ?? DEFAULT_MELT_MODEL;
 	const step = options.stepGPa ?? 1e-3;
-	if (!Number.isFinite(tpC)) throw new RangeError('potential temperature must be finite');
+	if (!Number.isFinite(tpC) || tpC > MAX_POTENTIAL_TEMPERATURE_C) {
+		throw new RangeError(`potential temperature must be at most ${MAX_POTENTIAL_TEMPERATURE_C} °C`);
+	}
 	if (!(step > 0 && step <= 0.1)) throw new RangeError('pressure step must be within (0, 0.1] GPa');
 	const key = `${modelId}|${tpC}|${step}`;
 	const hit = cache.get(key);
@@ -247,8 +256,8 @@ function runColumn(tpC: number, modelId: MeltModelId, dP: number, path?: MeltPat
 	let lo = 0;
 	let hi = 1;
 	while (excess(hi) > 0) {
-		hi *= 2;
-		if (hi > 64) throw new RangeError('potential temperature too high for the melting model');
+		hi += 1;
+		if (hi > 10) throw new RangeError('potential temperature too high for the melting model');
 	}
 	for (let i = 0; i < 100 && hi - lo > 1e-12; i++) {
 		const mid = 0.5 * (lo + hi);
@@ -375,8 +384,8 @@ export function airyShiftFromPotentialTemperatureM(
 
 // --- Inverse: depth anomaly → crust → potential temperature -----------------------------------
 
-/** Potential temperatures searched by the inverse (°C); the Katz solidus turns over above ~1700. */
-export const TP_SEARCH_RANGE_C: readonly [number, number] = [1100, 1650];
+/** Potential temperatures searched by the inverse (°C): the whole range the models accept. */
+export const TP_SEARCH_RANGE_C: readonly [number, number] = [1100, 1600];
 
 export interface ImpliedMantle {
 	crustKm: number;
