@@ -10,7 +10,7 @@
  * vertices unchanged. Known limit: an original vertex lying exactly on ±180° is taken for a cut
  * point and dropped on joining.
  */
-import { Geodesic } from 'geographiclib-geodesic';
+import { Geodesic } from '../geographiclib';
 import type { LonLat } from './types';
 
 const MASK = Geodesic.LATITUDE | Geodesic.LONGITUDE | Geodesic.LONG_UNROLL;

@@ -2,7 +2,7 @@
  * Test support shared by the format specs: a seeded random source (so property tests are
  * reproducible) and plan fixtures that exercise every field.
  */
-import { Geodesic } from 'geographiclib-geodesic';
+import { Geodesic } from '../geographiclib';
 import type { LonLat, PlanDoc } from './types';
 
 /** Seeded PRNG (mulberry32), uniform in [0, 1). */
