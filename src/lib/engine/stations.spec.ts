@@ -1,58 +1,66 @@
 import { describe, expect, it } from 'vitest';
-import {
-	coreDurationH,
-	ctdDurationH,
-	diveDurationH,
-	dredgeDurationH,
-	stationDurationH,
-	wireMinutes
-} from './stations';
+import { coreHours, ctdDuration, dredgeHours, stationHours, vehicleDiveHours } from './stations';
 
-describe('wire time', () => {
-	it('a 4000 m cast at 60 m/min spends 133 min on the wire', () => {
-		// [derived] SCIENCE.md §6: 2 × 4000 m / 60 m/min = 133.3 min
-		expect(wireMinutes(4000, 60)).toBeCloseTo(133.333, 3);
+describe('CTD casts', () => {
+	it('spends 133 min on the wire for a 4000 m cast at a constant 60 m/min', () => {
+		// [derived] SCIENCE.md §6: 2 × 4000 m / 60 m/min = 133.3 min (no slow zone)
+		const c = ctdDuration(4000, { slowZoneM: 0 });
+		expect(Math.abs(c.wireMin - 133.3)).toBeLessThan(0.05);
+		expect(c.totalMin).toBeCloseTo(c.wireMin + 30, 9);
 	});
-	it('goes slow through the first 100 m (CalCOFI: 30 m/min)', () => {
-		// [published] CalCOFI procedures via SCIENCE.md §6; [derived] 2 × (100/30 + 3900/60) = 136.67 min
-		expect(wireMinutes(4000, 60, 100, 30)).toBeCloseTo(136.667, 3);
+
+	it('runs the first 100 m of the downcast at 30 m/min by default', () => {
+		// [published] CalCOFI procedures: 30 m/min for the first 100 m, then 50–60 m/min
+		// [derived] 100/30 + 3900/60 down, 4000/60 up = 135.0 min
+		const c = ctdDuration(4000);
+		expect(c.downMin).toBeCloseTo(100 / 30 + 3900 / 60, 9);
+		expect(c.upMin).toBeCloseTo(4000 / 60, 9);
+		expect(Math.abs(c.wireMin - 135.0)).toBeLessThan(0.05);
+		// a cast shallower than the slow zone runs slowly all the way down
+		expect(ctdDuration(60).downMin).toBeCloseTo(2, 9);
 	});
-	it('refuses a wire speed of zero', () => {
-		expect(() => wireMinutes(100, 0)).toThrow(RangeError);
+
+	it('adds bottle stops and deck time', () => {
+		// [derived] time = down + up + bottle stops + deck
+		const c = ctdDuration(2000, { bottleStops: 12, bottleStopMin: 1.5, deckMin: 45 });
+		expect(c.bottleMin).toBe(18);
+		expect(c.totalMin).toBeCloseTo(c.downMin + c.upMin + 18 + 45, 9);
 	});
 });
 
-describe('station durations', () => {
-	it('CTD: wire + bottle stops + deck time', () => {
-		// [derived] cast to 3990 m: 2 × (100/30 + 3890/60) = 136.33 min; 12 stops × 2 min; 30 min deck
-		expect(ctdDurationH(4000) * 60).toBeCloseTo(136.333 + 24 + 30, 2);
-		expect(
-			ctdDurationH(4000, { bottleStops: 0, deckMin: 0, altitudeM: 0, slowFirstM: 0 }) * 60
-		).toBeCloseTo(133.333, 3);
+describe('dredges, cores and dives', () => {
+	it('takes about 5 h for a rock dredge at 3 km', () => {
+		// [trade] about 5 h each at ridge depths including a drag of about 1 km
+		expect(Math.abs(dredgeHours(3000) - 5)).toBeLessThan(0.5);
+		// [derived] defaults: 2 × 4500 m / 60 m/min = 2.5 h + 1.5 h bottom + 1 h deck
+		expect(dredgeHours(3000)).toBeCloseTo(5, 9);
+		expect(dredgeHours(4000)).toBeGreaterThan(dredgeHours(3000));
 	});
-	it('a rock dredge at 3 km takes about 5 h', () => {
-		// [trade] SCIENCE.md §6: about 5 h each at ridge depths including a drag of about 1 km
-		const h = dredgeDurationH(3000);
-		expect(h).toBeGreaterThan(4.5);
-		expect(h).toBeLessThan(5.5);
+
+	it('times cores from the wire and fixed bottom and deck blocks', () => {
+		// [derived] 2 × 3000 m / 60 m/min = 1.667 h + 0.25 h + 1.5 h
+		expect(coreHours(3000)).toBeCloseTo(100 / 60 + 1.75, 9);
 	});
-	it('deeper stations take longer; a faster winch shortens them', () => {
-		expect(dredgeDurationH(4000)).toBeGreaterThan(dredgeDurationH(3000));
-		expect(coreDurationH(4000, { winchSpeedMPerMin: 80 })).toBeLessThan(coreDurationH(4000));
+
+	it('uses fixed blocks for vehicle dives', () => {
+		// [trade] a crewed dive takes 6–10 h with launch and recovery
+		expect(vehicleDiveHours('crewed')).toBeGreaterThanOrEqual(6);
+		expect(vehicleDiveHours('crewed')).toBeLessThanOrEqual(10);
+		expect(vehicleDiveHours('rov', 20)).toBe(20);
 	});
-	it('a crewed dive is a fixed block of 6–10 h, 8 h by default', () => {
-		// [trade] SCIENCE.md §6
-		expect(diveDurationH()).toBe(8);
-		expect(diveDurationH({ blockH: 6 })).toBe(6);
-	});
-	it('the vessel winch speed applies unless the station sets its own', () => {
-		expect(stationDurationH('core', 3000, {}, { winchSpeedMPerMin: 30 })).toBeCloseTo(
-			coreDurationH(3000, { winchSpeedMPerMin: 30 }),
+
+	it('uses the vessel winch speed and the CTD stand-off from the seafloor', () => {
+		// [derived] a 3010 m deep CTD station stops 10 m above the seafloor: 3000 m of wire
+		expect(stationHours('ctd', 3010)).toBeCloseTo(ctdDuration(3000).totalMin / 60, 9);
+		expect(stationHours('ctd', 3010, { winchSpeedMPerMin: 45 })).toBeCloseTo(
+			ctdDuration(3000, { wireSpeedMPerMin: 45 }).totalMin / 60,
 			9
 		);
-		expect(
-			stationDurationH('core', 3000, { winchSpeedMPerMin: 60 }, { winchSpeedMPerMin: 30 })
-		).toBeCloseTo(coreDurationH(3000), 9);
-		expect(stationDurationH('dive', 3000, { blockH: 9 })).toBe(9);
+		expect(stationHours('dredge', 3000, { winchSpeedMPerMin: 45 })).toBeCloseTo(
+			dredgeHours(3000, { winchSpeedMPerMin: 45 }),
+			9
+		);
+		expect(stationHours('core', 2000)).toBeCloseTo(coreHours(2000), 9);
+		expect(stationHours('dive', 2500, { vehicle: 'crewed' })).toBe(8);
 	});
 });

@@ -1,107 +1,145 @@
 /**
- * Station durations from water depth and vessel settings (SCIENCE.md §6). Times in hours, depths in
- * metres, wire speeds in metres per minute.
+ * Station durations from water depth and vessel settings (SCIENCE.md §6). All defaults are
+ * planning assumptions [trade] the user can change; results in minutes or hours as named.
  */
 
-export type StationKind = 'ctd' | 'dredge' | 'core' | 'dive';
-
-export interface WinchSettings {
-	/** Wire speed of the vessel's winch, m/min. */
-	winchSpeedMPerMin?: number;
-}
-
-export interface CtdParams extends WinchSettings {
-	/** Slow wire speed near the surface, m/min (CalCOFI procedures: 30 m/min for the first 100 m). */
+export interface CtdOptions {
+	/** Winch speed below the slow zone (m/min); CalCOFI procedures use 50–60. */
+	wireSpeedMPerMin?: number;
+	/** Top of the downcast run slowly (m) and its speed (m/min): 100 m at 30 m/min (CalCOFI). */
+	slowZoneM?: number;
 	slowSpeedMPerMin?: number;
-	slowFirstM?: number;
-	/** The rosette stops this far above the seafloor (m). */
-	altitudeM?: number;
+	/** Bottle stops on the upcast and minutes per stop. */
 	bottleStops?: number;
 	bottleStopMin?: number;
+	/** Deck time: recovery, sampling, redeploy (min). */
 	deckMin?: number;
 }
 
-const num = (v: unknown, fallback: number) =>
-	typeof v === 'number' && Number.isFinite(v) ? v : fallback;
+export const CTD_DEFAULTS: Required<CtdOptions> = Object.freeze({
+	wireSpeedMPerMin: 60,
+	slowZoneM: 100,
+	slowSpeedMPerMin: 30,
+	bottleStops: 0,
+	bottleStopMin: 2,
+	deckMin: 30
+});
 
-/** Minutes on the wire for a cast to `castM`: slow through the first metres, then at speed; both ways. */
-export function wireMinutes(
-	castM: number,
-	speedMPerMin: number,
-	slowFirstM = 0,
-	slowSpeedMPerMin = speedMPerMin
-): number {
-	if (!(speedMPerMin > 0) || !(slowSpeedMPerMin > 0))
-		throw new RangeError('wire speed must be above 0');
-	const slow = Math.min(castM, slowFirstM);
-	const oneWay = slow / slowSpeedMPerMin + (castM - slow) / speedMPerMin;
-	return 2 * oneWay;
+export interface CtdDuration {
+	downMin: number;
+	upMin: number;
+	wireMin: number;
+	bottleMin: number;
+	deckMin: number;
+	totalMin: number;
 }
 
 /**
- * CTD cast: wire down and up (slow through the first 100 m, CalCOFI), bottle stops on the way up,
- * deck time. Defaults 60 m/min and 30 min on deck [trade].
+ * CTD cast to castDepthM of wire: down (slow zone, then wire speed) + up at wire speed + bottle
+ * stops + deck time.
  */
-export function ctdDurationH(depthM: number, p: CtdParams = {}): number {
-	const speed = num(p.winchSpeedMPerMin, 60);
-	const cast = Math.max(0, depthM - num(p.altitudeM, 10));
-	const wire = wireMinutes(cast, speed, num(p.slowFirstM, 100), num(p.slowSpeedMPerMin, 30));
-	const stops = num(p.bottleStops, 12) * num(p.bottleStopMin, 2);
-	return (wire + stops + num(p.deckMin, 30)) / 60;
+export function ctdDuration(castDepthM: number, options: CtdOptions = {}): CtdDuration {
+	const o = { ...CTD_DEFAULTS, ...options };
+	const depth = Math.max(0, castDepthM);
+	const slow = Math.min(depth, o.slowZoneM);
+	const downMin = slow / o.slowSpeedMPerMin + (depth - slow) / o.wireSpeedMPerMin;
+	const upMin = depth / o.wireSpeedMPerMin;
+	const bottleMin = o.bottleStops * o.bottleStopMin;
+	const wireMin = downMin + upMin;
+	return {
+		downMin,
+		upMin,
+		wireMin,
+		bottleMin,
+		deckMin: o.deckMin,
+		totalMin: wireMin + bottleMin + o.deckMin
+	};
 }
 
-export interface DredgeParams extends WinchSettings {
-	/** Wire paid out per metre of depth, for the drag (trade: about 1.5). */
-	scope?: number;
-	/** Time dragging on the bottom, h (SCIENCE.md §6 default 1.5 h for about 1 km). */
+export interface DredgeOptions {
+	winchSpeedMPerMin?: number;
+	/** Wire paid out per metre of depth while dredging (scope). */
+	wireScope?: number;
+	/** On the bottom, including a drag of about 1 km (h). */
 	bottomH?: number;
 	deckH?: number;
 }
 
-/** Rock dredge: wire out to depth × scope and back at winch speed, time on the bottom, deck time. */
-export function dredgeDurationH(depthM: number, p: DredgeParams = {}): number {
-	const wire = wireMinutes(depthM * num(p.scope, 1.5), num(p.winchSpeedMPerMin, 60));
-	return wire / 60 + num(p.bottomH, 1.5) + num(p.deckH, 1);
+export const DREDGE_DEFAULTS: Required<DredgeOptions> = Object.freeze({
+	winchSpeedMPerMin: 60,
+	wireScope: 1.5,
+	bottomH: 1.5,
+	deckH: 1
+});
+
+/** Rock dredge (h): wire down + up at winch speed (depth × scope) + bottom time + deck time. */
+export function dredgeHours(depthM: number, options: DredgeOptions = {}): number {
+	const o = { ...DREDGE_DEFAULTS, ...options };
+	const wireH = (2 * Math.max(0, depthM) * o.wireScope) / o.winchSpeedMPerMin / 60;
+	return wireH + o.bottomH + o.deckH;
 }
 
-export interface CoreParams extends WinchSettings {
-	/** Time to settle, penetrate and pull out, h. */
+export interface CoreOptions {
+	winchSpeedMPerMin?: number;
+	/** Penetration and pull-out (h). */
 	bottomH?: number;
+	/** Rigging, recovery and core handling (h). */
 	deckH?: number;
 }
 
-/** Gravity or piston core: down and up at winch speed, a short time at the bottom, deck time. */
-export function coreDurationH(depthM: number, p: CoreParams = {}): number {
-	const wire = wireMinutes(depthM, num(p.winchSpeedMPerMin, 60));
-	return wire / 60 + num(p.bottomH, 0.5) + num(p.deckH, 1);
+export const CORE_DEFAULTS: Required<CoreOptions> = Object.freeze({
+	winchSpeedMPerMin: 60,
+	bottomH: 0.25,
+	deckH: 1.5
+});
+
+/** Gravity or piston core (h): wire down + up + bottom + deck. */
+export function coreHours(depthM: number, options: CoreOptions = {}): number {
+	const o = { ...CORE_DEFAULTS, ...options };
+	return (2 * Math.max(0, depthM)) / o.winchSpeedMPerMin / 60 + o.bottomH + o.deckH;
 }
 
-export interface DiveParams {
-	/** The whole dive block including launch and recovery, h (crewed dives 6–10 h [trade]). */
-	blockH?: number;
+export type VehicleKind = 'crewed' | 'rov' | 'auv';
+
+/** Fixed dive blocks including launch and recovery (h); a crewed dive takes 6–10 h [trade]. */
+export const VEHICLE_BLOCK_HOURS: Readonly<Record<VehicleKind, number>> = Object.freeze({
+	crewed: 8,
+	rov: 12,
+	auv: 16
+});
+
+export function vehicleDiveHours(kind: VehicleKind, blockH?: number): number {
+	return blockH ?? VEHICLE_BLOCK_HOURS[kind];
 }
 
-/** Vehicle dive: a fixed block; weather-limited, so plan it where the margin can absorb a loss. */
-export function diveDurationH(p: DiveParams = {}): number {
-	return num(p.blockH, 8);
+export type StationKind = 'ctd' | 'dredge' | 'core' | 'dive';
+
+export interface StationSettings {
+	/** Vessel winch speed (m/min), used for every wire station. */
+	winchSpeedMPerMin?: number;
+	ctd?: CtdOptions;
+	dredge?: DredgeOptions;
+	core?: CoreOptions;
+	vehicle?: VehicleKind;
+	diveBlockH?: number;
+	/** CTD stops this far above the seafloor (m). */
+	ctdOffBottomM?: number;
 }
 
-/** Duration of a station of any kind at this depth; `params` are the station's own settings. */
-export function stationDurationH(
-	kind: StationKind,
-	depthM: number,
-	params: Record<string, number | string> = {},
-	vessel: WinchSettings = {}
-): number {
-	const p = { winchSpeedMPerMin: vessel.winchSpeedMPerMin, ...params } as Record<string, unknown>;
+/** Duration (h) of a station of `kind` at a predicted depth, using the vessel's winch speed. */
+export function stationHours(kind: StationKind, depthM: number, s: StationSettings = {}): number {
+	const winch = s.winchSpeedMPerMin;
 	switch (kind) {
-		case 'ctd':
-			return ctdDurationH(depthM, p as CtdParams);
+		case 'ctd': {
+			const cast = Math.max(0, depthM - (s.ctdOffBottomM ?? 10));
+			const opts = winch ? { wireSpeedMPerMin: winch, ...s.ctd } : s.ctd;
+			return ctdDuration(cast, opts).totalMin / 60;
+		}
 		case 'dredge':
-			return dredgeDurationH(depthM, p as DredgeParams);
+			return dredgeHours(depthM, winch ? { winchSpeedMPerMin: winch, ...s.dredge } : s.dredge);
 		case 'core':
-			return coreDurationH(depthM, p as CoreParams);
+			return coreHours(depthM, winch ? { winchSpeedMPerMin: winch, ...s.core } : s.core);
 		case 'dive':
-			return diveDurationH(p as DiveParams);
+			return vehicleDiveHours(s.vehicle ?? 'crewed', s.diveBlockH);
 	}
 }
