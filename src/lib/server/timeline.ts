@@ -1,0 +1,593 @@
+// The cruise timeline on the server: the order of work as stored (plan items), assembled into the
+// engine's input (engine/timeline.ts does all the timing), with station durations from plancompute.
+// Reading functions take a database handle so the demo seed can use them inside its own connection.
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import {
+	buildTimeline,
+	type Timeline,
+	type TimelineInput,
+	type TimelineItem
+} from '../engine/timeline';
+import * as schedule from '../schedule';
+import type { LegSpan } from '../schedule';
+import { ApiError } from './api';
+import { audit } from './audit';
+import { db as appDb } from './db';
+import type { Db } from './db/client';
+import {
+	clockChange,
+	cruise,
+	leg,
+	planItem,
+	port,
+	ridgeSegment,
+	station,
+	surveyLine,
+	vessel,
+	type Cruise,
+	type PlanItem,
+	type Port,
+	type Station,
+	type SurveyLine
+} from './db/schema';
+import { newId } from './ids';
+import { computeStation, planSettings } from './plancompute';
+
+type PlanRows = Parameters<typeof planSettings>[0] & {
+	lines: SurveyLine[];
+	stations: Station[];
+};
+
+export const DEFAULT_PORT_CALL_H = 36;
+
+/** One entry of the order of work, as the order editor shows it. */
+export interface OrderEntry {
+	id: string;
+	kind: PlanItem['kind'];
+	refId: string;
+	name: string;
+	reversed: boolean;
+	/** Line ends or the point, [lon, lat]. */
+	ends: [number, number][];
+	durationH: number | null;
+	lengthNm: number | null;
+	legSeq: number;
+}
+
+export interface Unordered {
+	kind: 'line' | 'station';
+	refId: string;
+	name: string;
+}
+
+export interface TimelineData {
+	cruise: Cruise;
+	departurePort: Port | null;
+	returnPort: Port | null;
+	/** Null, with the reason in `missing`, until vessel, ports and sailing time are set. */
+	input: TimelineInput | null;
+	missing: string[];
+	/** Things the timing could not account for. */
+	notes: string[];
+	order: OrderEntry[];
+	unordered: Unordered[];
+	ports: Port[];
+	clockChanges: { id: string; at: number; utcOffsetMinutes: number; note: string | null }[];
+}
+
+type Reader = Pick<Db, 'select'>;
+
+function planRows(d: Reader, c: Cruise): PlanRows {
+	const v = c.vesselId
+		? (d.select().from(vessel).where(eq(vessel.id, c.vesselId)).get() ?? null)
+		: null;
+	return {
+		cruise: c,
+		vessel: v,
+		ridges: d.select().from(ridgeSegment).where(eq(ridgeSegment.cruiseId, c.id)).all(),
+		lines: d
+			.select()
+			.from(surveyLine)
+			.where(eq(surveyLine.cruiseId, c.id))
+			.orderBy(asc(surveyLine.name))
+			.all(),
+		stations: d
+			.select()
+			.from(station)
+			.where(eq(station.cruiseId, c.id))
+			.orderBy(asc(station.name))
+			.all()
+	};
+}
+
+/** Everything the timeline needs, read once. */
+export function load(cruiseId: string, d: Reader = appDb): TimelineData {
+	const c = d.select().from(cruise).where(eq(cruise.id, cruiseId)).get();
+	if (!c) throw new ApiError(404, 'No such cruise.');
+	const rows = planRows(d, c);
+	const settings = planSettings(rows);
+	const ports = d.select().from(port).orderBy(asc(port.name)).all();
+	const portById = new Map(ports.map((p) => [p.id, p]));
+	const lineById = new Map(rows.lines.map((l) => [l.id, l]));
+	const stationById = new Map(rows.stations.map((s) => [s.id, s]));
+	const items = d
+		.select()
+		.from(planItem)
+		.where(eq(planItem.cruiseId, cruiseId))
+		.orderBy(asc(planItem.seq))
+		.all();
+
+	const order: OrderEntry[] = [];
+	const notes: string[] = [];
+	const engineItems: TimelineItem[] = [];
+	let legSeq = 1;
+	for (const it of items) {
+		if (it.kind === 'line' && it.lineId && lineById.has(it.lineId)) {
+			const l = lineById.get(it.lineId)!;
+			const ends = [l.coords[0], l.coords[l.coords.length - 1]];
+			order.push({
+				id: it.id,
+				kind: 'line',
+				refId: l.id,
+				name: l.name,
+				reversed: it.reversed,
+				ends,
+				durationH: null,
+				lengthNm: null,
+				legSeq
+			});
+			engineItems.push({
+				kind: 'line',
+				id: it.id,
+				name: l.name,
+				coords: l.coords,
+				reversed: it.reversed,
+				surveySpeedKn: l.surveySpeedKn
+			});
+		} else if (it.kind === 'station' && it.stationId && stationById.has(it.stationId)) {
+			const s = stationById.get(it.stationId)!;
+			const computed = computeStation(s, settings).durationH;
+			const durationH = computed ?? 0;
+			if (computed == null)
+				notes.push(`${s.name} has no predicted depth (no ridge segment), so it is timed at 0 h.`);
+			order.push({
+				id: it.id,
+				kind: 'station',
+				refId: s.id,
+				name: s.name,
+				reversed: false,
+				ends: [[s.lon, s.lat]],
+				durationH,
+				lengthNm: null,
+				legSeq
+			});
+			engineItems.push({
+				kind: 'station',
+				id: it.id,
+				name: s.name,
+				position: [s.lon, s.lat],
+				durationH
+			});
+		} else if (it.kind === 'port_call' && it.portId && portById.has(it.portId)) {
+			const p = portById.get(it.portId)!;
+			const durationH = it.portCallHours ?? DEFAULT_PORT_CALL_H;
+			order.push({
+				id: it.id,
+				kind: 'port_call',
+				refId: p.id,
+				name: `Port call, ${p.name}`,
+				reversed: false,
+				ends: [[p.lon, p.lat]],
+				durationH,
+				lengthNm: null,
+				legSeq
+			});
+			engineItems.push({
+				kind: 'port_call',
+				id: it.id,
+				name: `Port call, ${p.name}`,
+				position: [p.lon, p.lat],
+				durationH
+			});
+			legSeq++;
+		}
+	}
+	const inOrder = new Set(items.map((i) => i.lineId ?? i.stationId));
+	const unordered: Unordered[] = [
+		...rows.lines
+			.filter((l) => !inOrder.has(l.id))
+			.map((l) => ({ kind: 'line' as const, refId: l.id, name: l.name })),
+		...rows.stations
+			.filter((s) => !inOrder.has(s.id))
+			.map((s) => ({ kind: 'station' as const, refId: s.id, name: s.name }))
+	];
+
+	const changes = d
+		.select()
+		.from(clockChange)
+		.where(eq(clockChange.cruiseId, cruiseId))
+		.orderBy(asc(clockChange.at))
+		.all()
+		.map((x) => ({
+			id: x.id,
+			at: x.at.getTime(),
+			utcOffsetMinutes: x.utcOffsetMinutes,
+			note: x.note
+		}));
+
+	const dep = c.departurePortId ? (portById.get(c.departurePortId) ?? null) : null;
+	const ret = c.returnPortId ? (portById.get(c.returnPortId) ?? null) : null;
+	const missing: string[] = [];
+	if (!rows.vessel) missing.push('a vessel');
+	if (!dep) missing.push('a departure port');
+	if (!ret) missing.push('a return port');
+	if (!c.departureAt) missing.push('a departure time');
+
+	const input: TimelineInput | null =
+		missing.length === 0
+			? {
+					departure: {
+						name: dep!.name,
+						position: [dep!.lon, dep!.lat],
+						at: c.departureAt!.getTime(),
+						utcOffsetMinutes: dep!.utcOffsetMinutes
+					},
+					arrival: { name: ret!.name, position: [ret!.lon, ret!.lat] },
+					items: engineItems,
+					transitSpeedKn: rows.vessel!.transitSpeedKn,
+					turnH: c.turnH,
+					mobilisationH: c.mobilisationH,
+					demobilisationH: c.demobilisationH,
+					margin:
+						c.weatherMarginDays != null
+							? { days: c.weatherMarginDays }
+							: { pct: c.weatherMarginPct },
+					allocatedDays: c.allocatedDays,
+					dayRateMinor: rows.vessel!.dayRateMinor,
+					currency: rows.vessel!.currency,
+					clockChanges: changes.map((x) => ({ at: x.at, utcOffsetMinutes: x.utcOffsetMinutes }))
+				}
+			: null;
+
+	// Lengths and times of lines as the engine runs them, for the order editor.
+	if (input) {
+		const t = buildTimeline(input);
+		for (const e of t.events) {
+			const o = order.find((x) => x.id === e.refId);
+			if (o && (e.kind === 'line' || e.kind === 'station' || e.kind === 'port')) {
+				o.durationH = e.durationH;
+				o.lengthNm = e.distanceNm ?? null;
+			}
+		}
+	}
+
+	return {
+		cruise: c,
+		departurePort: dep,
+		returnPort: ret,
+		input,
+		missing,
+		notes,
+		order,
+		unordered,
+		ports,
+		clockChanges: changes
+	};
+}
+
+export function build(
+	cruiseId: string,
+	d: Reader = appDb
+): { data: TimelineData; timeline: Timeline | null } {
+	const data = load(cruiseId, d);
+	return { data, timeline: data.input ? buildTimeline(data.input) : null };
+}
+
+export { eventKeys, returnAt } from '../schedule';
+
+export function legSpans(t: Timeline, data: TimelineData): LegSpan[] {
+	return data.input ? schedule.legSpans(t, data.input) : [];
+}
+
+/** The API shape (DESIGN issue 5): UTC ISO 8601 times, events in time order. */
+export function toApi(t: Timeline) {
+	const iso = (ms: number) => new Date(ms).toISOString();
+	const round = (x: number, n: number) => Math.round(x * 10 ** n) / 10 ** n;
+	return {
+		events: [...t.events]
+			.sort((a, b) => a.start - b.start)
+			.map((e) => ({
+				kind: e.kind,
+				name: e.name,
+				start: iso(e.start),
+				end: iso(e.end),
+				...(e.distanceNm != null ? { distanceNm: round(e.distanceNm, 2) } : {}),
+				durationH: round(e.durationH, 3),
+				localUtcOffsetMinutes: e.localOffsetMinutes
+			})),
+		totals: {
+			operatingDays: t.totals.operatingDays,
+			allocatedDays: t.totals.allocatedDays,
+			marginDays: round(t.totals.marginDays, 3),
+			scienceHours: round(t.totals.scienceH, 2),
+			transitHours: round(t.totals.transitH, 2),
+			portHours: round(t.totals.portH, 2),
+			overrunDays: t.totals.overrunDays,
+			cost: t.totals.cost
+		},
+		warnings: t.warnings,
+		cuts: t.cuts.map((c) => ({ ...c, hours: round(c.hours, 2) }))
+	};
+}
+
+// ---------------------------------------------------------------- editing the order
+
+type Writer = Pick<Db, 'select' | 'insert' | 'update' | 'delete' | 'transaction'>;
+
+function touch(d: Pick<Db, 'update'>, cruiseId: string) {
+	d.update(cruise).set({ updatedAt: new Date() }).where(eq(cruise.id, cruiseId)).run();
+}
+
+function currentItems(d: Reader, cruiseId: string) {
+	return d
+		.select()
+		.from(planItem)
+		.where(eq(planItem.cruiseId, cruiseId))
+		.orderBy(asc(planItem.seq))
+		.all();
+}
+
+/** Legs follow the port calls: items before the first port call are leg 1, and so on. */
+function legIds(d: Reader, cruiseId: string): string[] {
+	return d
+		.select({ id: leg.id })
+		.from(leg)
+		.where(eq(leg.cruiseId, cruiseId))
+		.orderBy(asc(leg.seq))
+		.all()
+		.map((l) => l.id);
+}
+
+function renumber(d: Writer, cruiseId: string, ordered: { id: string; reversed: boolean }[]) {
+	const legs = legIds(d, cruiseId);
+	let legIndex = 0;
+	// Two passes so the (cruise, seq) order never collides midway.
+	ordered.forEach((o, i) =>
+		d
+			.update(planItem)
+			.set({ seq: -1 - i })
+			.where(eq(planItem.id, o.id))
+			.run()
+	);
+	const kinds = new Map(currentItems(d, cruiseId).map((x) => [x.id, x.kind]));
+	ordered.forEach((o, i) => {
+		const isPort = kinds.get(o.id) === 'port_call';
+		d.update(planItem)
+			.set({
+				seq: i + 1,
+				reversed: isPort ? false : o.reversed,
+				legId: legs[Math.min(legIndex, legs.length - 1)] ?? null
+			})
+			.where(eq(planItem.id, o.id))
+			.run();
+		if (isPort) legIndex++;
+	});
+}
+
+/** Sets the whole order at once: the same items, each once, in a new order and direction. */
+export function setOrder(
+	actorId: string,
+	cruiseId: string,
+	items: { id: string; reversed: boolean }[],
+	d: Writer = appDb
+) {
+	d.transaction((tx) => {
+		const have = currentItems(tx, cruiseId);
+		const ids = new Set(have.map((x) => x.id));
+		const given = new Set(items.map((x) => x.id));
+		if (given.size !== items.length) throw new ApiError(422, 'An item appears twice in the order.');
+		if (given.size !== ids.size || [...given].some((id) => !ids.has(id)))
+			throw new ApiError(
+				409,
+				'The order does not match the plan items of this cruise (it changed meanwhile?). Reload and try again.'
+			);
+		renumber(tx, cruiseId, items);
+		touch(tx, cruiseId);
+		audit(tx, {
+			userId: actorId,
+			cruiseId,
+			action: 'timeline.order',
+			detail: { count: items.length }
+		});
+	});
+}
+
+export function addItem(
+	actorId: string,
+	cruiseId: string,
+	item:
+		| { kind: 'line' | 'station'; refId: string }
+		| { kind: 'port_call'; portId: string; hours: number },
+	d: Writer = appDb
+): string {
+	const id = newId();
+	d.transaction((tx) => {
+		const have = currentItems(tx, cruiseId);
+		const seq = (have.at(-1)?.seq ?? 0) + 1;
+		if (item.kind === 'port_call') {
+			if (!tx.select({ id: port.id }).from(port).where(eq(port.id, item.portId)).get())
+				throw new ApiError(404, 'No such port.');
+			tx.insert(planItem)
+				.values({
+					id,
+					cruiseId,
+					seq,
+					kind: 'port_call',
+					portId: item.portId,
+					portCallHours: item.hours
+				})
+				.run();
+		} else {
+			const table = item.kind === 'line' ? surveyLine : station;
+			const found = tx
+				.select({ id: table.id })
+				.from(table)
+				.where(and(eq(table.id, item.refId), eq(table.cruiseId, cruiseId)))
+				.get();
+			if (!found) throw new ApiError(404, `No such ${item.kind} on this cruise.`);
+			if (have.some((x) => x.lineId === item.refId || x.stationId === item.refId))
+				throw new ApiError(409, `That ${item.kind} is already in the order.`);
+			tx.insert(planItem)
+				.values({
+					id,
+					cruiseId,
+					seq,
+					kind: item.kind,
+					...(item.kind === 'line' ? { lineId: item.refId } : { stationId: item.refId })
+				})
+				.run();
+		}
+		renumber(tx, cruiseId, [...have, { id, reversed: false }]);
+		touch(tx, cruiseId);
+		audit(tx, {
+			userId: actorId,
+			cruiseId,
+			action: 'timeline.item.added',
+			detail: { id, kind: item.kind }
+		});
+	});
+	return id;
+}
+
+export function removeItem(actorId: string, cruiseId: string, itemId: string, d: Writer = appDb) {
+	d.transaction((tx) => {
+		const res = tx
+			.delete(planItem)
+			.where(and(eq(planItem.id, itemId), eq(planItem.cruiseId, cruiseId)))
+			.run();
+		if (res.changes === 0) throw new ApiError(404, 'No such item in the order.');
+		renumber(tx, cruiseId, currentItems(tx, cruiseId));
+		touch(tx, cruiseId);
+		audit(tx, {
+			userId: actorId,
+			cruiseId,
+			action: 'timeline.item.removed',
+			detail: { id: itemId }
+		});
+	});
+}
+
+export function setPortCallHours(
+	actorId: string,
+	cruiseId: string,
+	itemId: string,
+	hours: number,
+	d: Writer = appDb
+) {
+	const res = d
+		.update(planItem)
+		.set({ portCallHours: hours })
+		.where(
+			and(eq(planItem.id, itemId), eq(planItem.cruiseId, cruiseId), eq(planItem.kind, 'port_call'))
+		)
+		.run();
+	if (res.changes === 0) throw new ApiError(404, 'No such port call in the order.');
+	touch(d, cruiseId);
+	audit(d, {
+		userId: actorId,
+		cruiseId,
+		action: 'timeline.port_call',
+		detail: { id: itemId, hours }
+	});
+}
+
+// ---------------------------------------------------------------- settings and clock changes
+
+export interface TimingSettings {
+	turnH: number;
+	mobilisationH: number;
+	demobilisationH: number;
+	marginMode: 'pct' | 'days';
+	weatherMarginPct: number;
+	weatherMarginDays: number;
+}
+
+export function settingsOf(c: Cruise): TimingSettings {
+	return {
+		turnH: c.turnH,
+		mobilisationH: c.mobilisationH,
+		demobilisationH: c.demobilisationH,
+		marginMode: c.weatherMarginDays != null ? 'days' : 'pct',
+		weatherMarginPct: c.weatherMarginPct,
+		weatherMarginDays: c.weatherMarginDays ?? 0
+	};
+}
+
+export function saveSettings(
+	actorId: string,
+	cruiseId: string,
+	s: TimingSettings,
+	d: Writer = appDb
+) {
+	d.transaction((tx) => {
+		tx.update(cruise)
+			.set({
+				turnH: s.turnH,
+				mobilisationH: s.mobilisationH,
+				demobilisationH: s.demobilisationH,
+				weatherMarginPct: s.weatherMarginPct,
+				weatherMarginDays: s.marginMode === 'days' ? s.weatherMarginDays : null,
+				updatedAt: new Date()
+			})
+			.where(eq(cruise.id, cruiseId))
+			.run();
+		audit(tx, { userId: actorId, cruiseId, action: 'timeline.settings', detail: s });
+	});
+}
+
+export function addClockChange(
+	actorId: string,
+	cruiseId: string,
+	c: { at: Date; utcOffsetMinutes: number; note?: string },
+	d: Writer = appDb
+) {
+	const id = newId();
+	d.transaction((tx) => {
+		tx.insert(clockChange)
+			.values({
+				id,
+				cruiseId,
+				at: c.at,
+				utcOffsetMinutes: c.utcOffsetMinutes,
+				note: c.note || null
+			})
+			.run();
+		touch(tx, cruiseId);
+		audit(tx, { userId: actorId, cruiseId, action: 'timeline.clock.added', detail: { id } });
+	});
+	return id;
+}
+
+export function removeClockChange(
+	actorId: string,
+	cruiseId: string,
+	id: string,
+	d: Writer = appDb
+) {
+	const res = d
+		.delete(clockChange)
+		.where(and(eq(clockChange.id, id), eq(clockChange.cruiseId, cruiseId)))
+		.run();
+	if (res.changes === 0) throw new ApiError(404, 'No such clock change.');
+	audit(d, { userId: actorId, cruiseId, action: 'timeline.clock.removed', detail: { id } });
+}
+
+/** Plan items by id, for naming the cuts and clearance items. */
+export function itemsById(cruiseId: string, ids: string[], d: Reader = appDb) {
+	if (!ids.length) return [];
+	return d
+		.select()
+		.from(planItem)
+		.where(and(eq(planItem.cruiseId, cruiseId), inArray(planItem.id, ids)))
+		.all();
+}
