@@ -1,11 +1,14 @@
 // The demo scenario (DESIGN.md §8). Everything here is invented: the vessel, the ports, the people
 // and the ridge, placed in open ocean. Numbers are plausible for the demo only, not measurements.
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { hashPassword } from '../src/lib/server/auth';
 import type { Db } from '../src/lib/server/db/client';
 import * as t from '../src/lib/server/db/schema';
 import type { LonLat } from '../src/lib/server/db/schema';
+import * as clearances from '../src/lib/server/clearances';
+import * as deadlines from '../src/lib/server/deadlines';
 import { newId } from '../src/lib/server/ids';
+import * as timelines from '../src/lib/server/timeline';
 
 export const DEMO_PASSWORD = 'ridge-crest-2027';
 
@@ -28,6 +31,7 @@ export const DEMO_USERS = [
 ] as const;
 
 const DAY = 86_400_000;
+const HOUR = 3_600_000;
 
 /** Seeds the demo once; returns false when the database already holds users. */
 export async function seedDemo(db: Db): Promise<boolean> {
@@ -477,7 +481,153 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				})
 				.run();
 	});
+	seedSchedule(db, sail);
 	return true;
+}
+
+/**
+ * The order of work for MT27-03 (leg 1 on the northern segment, a port call at Bellmoor Harbour,
+ * leg 2 on the southern segment and flanks), the ship's clock changes, the clearance's plan items
+ * and its frozen submission, and the checklist. Sized to fit the 28 allocated days.
+ */
+function seedSchedule(db: Db, sail: number) {
+	const cruiseId = demoCruiseId(db)!;
+	const chief = db.select().from(t.user).where(eq(t.user.email, 'chief@example.org')).get()!.id;
+	const byName = new Map<string, { kind: 'line' | 'station'; refId: string }>([
+		...db
+			.select()
+			.from(t.surveyLine)
+			.where(eq(t.surveyLine.cruiseId, cruiseId))
+			.all()
+			.map((l) => [l.name, { kind: 'line' as const, refId: l.id }] as const),
+		...db
+			.select()
+			.from(t.station)
+			.where(eq(t.station.cruiseId, cruiseId))
+			.all()
+			.map((s) => [s.name, { kind: 'station' as const, refId: s.id }] as const)
+	]);
+	const bellmoor = db.select().from(t.port).where(eq(t.port.name, 'Bellmoor Harbour')).get()!.id;
+	const leg1 = [
+		'MAG-1',
+		'CTD-03',
+		'N-X1',
+		'N-X2',
+		'N-X3',
+		'N-X4',
+		'N-X5',
+		'N-AX',
+		'CTD-01',
+		'DIVE-01',
+		'DR-01'
+	];
+	const leg2 = [
+		'DR-02',
+		'S-X1',
+		'S-X2',
+		'S-X3',
+		'S-X4',
+		'S-AX',
+		'DIVE-02',
+		'CTD-02',
+		'DR-03',
+		'GC-02',
+		'GC-01'
+	];
+	// Lines alternate direction so that each starts near where the last one ended.
+	const reversed = new Set(['N-X2', 'N-X4', 'S-X2', 'S-X4', 'S-AX']);
+	const ids = new Map<string, string>();
+	for (const name of leg1) ids.set(name, timelines.addItem(chief, cruiseId, byName.get(name)!, db));
+	timelines.addItem(chief, cruiseId, { kind: 'port_call', portId: bellmoor, hours: 36 }, db);
+	for (const name of leg2) ids.set(name, timelines.addItem(chief, cruiseId, byName.get(name)!, db));
+	const order = timelines.load(cruiseId, db).order;
+	timelines.setOrder(
+		chief,
+		cruiseId,
+		order.map((o) => ({ id: o.id, reversed: reversed.has(o.name) })),
+		db
+	);
+	timelines.saveSettings(
+		chief,
+		cruiseId,
+		{
+			turnH: 0.75,
+			mobilisationH: 48,
+			demobilisationH: 24,
+			marginMode: 'pct',
+			weatherMarginPct: 12,
+			weatherMarginDays: 0
+		},
+		db
+	);
+	// Port Ardent keeps UTC−10, Bellmoor Harbour UTC−9: the ship follows on the way there and back.
+	const first = timelines.build(cruiseId, db).timeline!;
+	const call = first.events.find((e) => e.kind === 'port')!;
+	timelines.addClockChange(
+		chief,
+		cruiseId,
+		{
+			at: new Date(call.start - 12 * HOUR),
+			utcOffsetMinutes: -540,
+			note: 'To Bellmoor Harbour time'
+		},
+		db
+	);
+	timelines.addClockChange(
+		chief,
+		cruiseId,
+		{
+			at: new Date(call.end + 12 * HOUR),
+			utcOffsetMinutes: -600,
+			note: 'Back to Port Ardent time'
+		},
+		db
+	);
+	// The cruise's dates and legs follow the planned timeline.
+	const built = timelines.build(cruiseId, db);
+	const legs = timelines.legSpans(built.timeline!, built.data);
+	db.update(t.cruise)
+		.set({ returnAt: new Date(timelines.returnAt(built.timeline!)) })
+		.where(eq(t.cruise.id, cruiseId))
+		.run();
+	for (const l of legs)
+		db.update(t.leg)
+			.set({ startAt: new Date(l.start), endAt: new Date(l.end) })
+			.where(and(eq(t.leg.cruiseId, cruiseId), eq(t.leg.seq, l.seq)))
+			.run();
+
+	// The western flank work lies in Xandera's waters (invented boundary).
+	const xandera = db.select().from(t.clearance).where(eq(t.clearance.cruiseId, cruiseId)).get()!;
+	clearances.update(
+		chief,
+		cruiseId,
+		xandera.id,
+		{
+			coastalState: xandera.coastalState,
+			leadMonths: xandera.leadMonths,
+			status: 'preparing',
+			notes: xandera.notes ?? '',
+			itemIds: ['MAG-1', 'CTD-03', 'GC-01'].map((n) => ids.get(n)!)
+		},
+		db
+	);
+	clearances.submit(chief, cruiseId, xandera.id, new Date(sail - 200 * DAY), db);
+
+	deadlines.addUsual(chief, cruiseId, db);
+	deadlines.create(
+		chief,
+		cruiseId,
+		{
+			title: 'Cruise plan to the operator’s office',
+			kind: 'other',
+			anchor: 'sailing',
+			offsetDays: -180
+		},
+		db
+	);
+	for (const r of deadlines.rows(cruiseId, db))
+		if (r.title.startsWith('Personnel forms') || r.title.startsWith('Dangerous goods'))
+			deadlines.setDone(chief, cruiseId, r.id, true, db);
 }
 
 export function demoCruiseId(db: Db): string | undefined {
