@@ -5,7 +5,8 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter({ out: 'build' }),
+		// BUILD_DIR lets parallel builds (e.g. several test runs) keep apart.
+		adapter: adapter({ out: process.env.BUILD_DIR || 'build' }),
 		csrf: { trustedOrigins: [] },
 		typescript: {
 			// Type-check the scripts and root config files too, not only src/ and tests/.

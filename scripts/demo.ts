@@ -325,12 +325,12 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				id: newId(),
 				cruiseId,
 				name: 'Transform box',
+				// Rings are stored open: the first vertex is not repeated.
 				ring: [
 					[-146.1, -30.3],
 					[-145.3, -30.3],
 					[-145.3, -30.7],
-					[-146.1, -30.7],
-					[-146.1, -30.3]
+					[-146.1, -30.7]
 				],
 				overlapPct: 30,
 				surveySpeedKn: 8

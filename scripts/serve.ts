@@ -40,7 +40,7 @@ if (!config.smtpUrl) {
 	fakes.push(`mail catcher on 127.0.0.1:${smtpPort} (read it at /admin/mail)`);
 }
 
-const entry = resolve('build/index.js');
+const entry = resolve(process.env.BUILD_DIR || 'build', 'index.js');
 if (!existsSync(entry)) {
 	console.error('No build found. Run `npm run build` first (npm start does it for you).');
 	process.exit(1);

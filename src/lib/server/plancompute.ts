@@ -1,0 +1,143 @@
+// Server-side computation of a plan's derived values with the shared engine: predicted depths along
+// lines and at stations, line lengths and times, station durations. Authoritative for saved plans.
+import { RidgeAgeModel } from '$lib/engine/age';
+import { makeDepthPredictor, type DepthModelId, type PredictedDepth } from '$lib/engine/depth';
+import { lineLengthM, sampleLine } from '$lib/engine/geodesy';
+import { airyShiftFromPotentialTemperatureM } from '$lib/engine/melt';
+import { stationHours, type StationKind, type StationSettings } from '$lib/engine/stations';
+import type { Cruise, RidgeSegment, Station, SurveyLine, Vessel } from './db/schema';
+
+/** Vessel settings used when a cruise has no vessel yet [trade]. */
+export const DEFAULT_VESSEL = {
+	swathAngleDeg: 130,
+	swathDepthFactor: 4,
+	surveySpeedKn: 8,
+	transitSpeedKn: 10,
+	winchSpeedMPerMin: 60
+};
+
+export interface PlanSettings {
+	model: DepthModelId;
+	vessel: typeof DEFAULT_VESSEL;
+	/** Predicted depth (with band) and age at a position; null when the cruise has no ridge. */
+	depthAt: (lon: number, lat: number) => (PredictedDepth & { ageMa: number }) | null;
+}
+
+/** Lines are sampled every kilometre, but never more than this many samples per line. */
+const MAX_SAMPLES = 2000;
+
+export function planSettings(r: {
+	cruise: Cruise;
+	vessel: Vessel | null;
+	ridges: RidgeSegment[];
+}): PlanSettings {
+	const v = r.vessel;
+	const vessel = v
+		? {
+				swathAngleDeg: v.swathAngleDeg,
+				swathDepthFactor: v.swathDepthFactor,
+				surveySpeedKn: v.surveySpeedKn,
+				transitSpeedKn: v.transitSpeedKn,
+				winchSpeedMPerMin: v.winchSpeedMPerMin
+			}
+		: DEFAULT_VESSEL;
+	const model = r.cruise.depthModel;
+	if (r.ridges.length === 0) return { model, vessel, depthAt: () => null };
+
+	const ages = new RidgeAgeModel(
+		r.ridges.map((s) => ({ axis: s.axis, fullRateMmYr: s.fullRateMmYr, asymmetry: s.asymmetry }))
+	);
+	// Each segment's curve is anchored to its measured axial depth, or shifted by the Airy effect
+	// of the crust its mantle temperature makes, or left on the reference curve.
+	const predictors = r.ridges.map((s) =>
+		makeDepthPredictor(
+			model,
+			s.axialDepthM != null
+				? { axialDepthM: s.axialDepthM }
+				: s.potentialTemperatureC != null
+					? { airyShiftM: airyShiftFromPotentialTemperatureM(s.potentialTemperatureC) }
+					: {}
+		)
+	);
+	return {
+		model,
+		vessel,
+		depthAt: (lon, lat) => {
+			const a = ages.ageAt(lon, lat);
+			return { ...predictors[a.segment](a.ageMa), ageMa: a.ageMa };
+		}
+	};
+}
+
+export interface LineValues {
+	lengthKm: number;
+	durationH: number;
+	minDepthM: number | null;
+	maxDepthM: number | null;
+}
+
+export function computeLine(
+	line: Pick<SurveyLine, 'coords' | 'surveySpeedKn'>,
+	s: PlanSettings
+): LineValues {
+	const lengthM = lineLengthM(line.coords);
+	const durationH = lengthM / (line.surveySpeedKn * 1852);
+	if (lengthM === 0) return { lengthKm: 0, durationH: 0, minDepthM: null, maxDepthM: null };
+	const samples = sampleLine(line.coords, Math.max(1000, lengthM / MAX_SAMPLES));
+	let min = Infinity;
+	let max = -Infinity;
+	for (let i = 0; i < samples.count; i++) {
+		const d = s.depthAt(samples.lon[i], samples.lat[i]);
+		if (!d) return { lengthKm: lengthM / 1000, durationH, minDepthM: null, maxDepthM: null };
+		if (d.depthM < min) min = d.depthM;
+		if (d.depthM > max) max = d.depthM;
+	}
+	return { lengthKm: lengthM / 1000, durationH, minDepthM: min, maxDepthM: max };
+}
+
+export interface StationValues {
+	depthM: number | null;
+	durationH: number | null;
+}
+
+const numbers = (params: Record<string, number | string>) =>
+	Object.fromEntries(Object.entries(params).filter(([, v]) => typeof v === 'number')) as Record<
+		string,
+		number
+	>;
+
+/** A station's own settings (its `params`) on top of the vessel's winch speed. */
+export function stationSettings(
+	kind: StationKind,
+	params: Record<string, number | string>,
+	winchSpeedMPerMin: number
+): StationSettings {
+	const own = numbers(params);
+	const vehicle = params.vehicle;
+	return {
+		winchSpeedMPerMin,
+		...(kind === 'ctd' ? { ctd: own, ctdOffBottomM: own.offBottomM } : {}),
+		...(kind === 'dredge' ? { dredge: own } : {}),
+		...(kind === 'core' ? { core: own } : {}),
+		...(kind === 'dive'
+			? {
+					diveBlockH: own.blockH,
+					vehicle:
+						vehicle === 'rov' || vehicle === 'auv' || vehicle === 'crewed' ? vehicle : undefined
+				}
+			: {})
+	};
+}
+
+export function computeStation(
+	st: Pick<Station, 'kind' | 'lon' | 'lat' | 'params'>,
+	s: PlanSettings
+): StationValues {
+	const d = s.depthAt(st.lon, st.lat);
+	const settings = stationSettings(st.kind, st.params, s.vessel.winchSpeedMPerMin);
+	// A dive is a fixed block; wire stations need a depth.
+	if (st.kind === 'dive')
+		return { depthM: d?.depthM ?? null, durationH: stationHours('dive', 0, settings) };
+	if (!d) return { depthM: null, durationH: null };
+	return { depthM: d.depthM, durationH: stationHours(st.kind, d.depthM, settings) };
+}

@@ -1,0 +1,13 @@
+import { json } from '@sveltejs/kit';
+import { api, readJson } from '$lib/server/api';
+import * as guards from '$lib/server/guards';
+import * as plan from '$lib/server/plan';
+import { bulkEditSchema } from '$lib/schemas/plan';
+import type { RequestHandler } from './$types';
+
+export const POST: RequestHandler = api(async (event) => {
+	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
+	const input = await readJson(event, bulkEditSchema);
+	const changed = plan.bulkEditLines(user.id, cruise.id, input.ids, input.properties);
+	return json({ changed });
+});
