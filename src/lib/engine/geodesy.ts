@@ -251,7 +251,13 @@ export class PolylineIndex {
 	private readonly child: Int32Array; // 2 per node: left,right; leaf: -(start+1), count
 	private readonly stack: Int32Array;
 	private readonly cand: Float64Array; // candidate scratch: piece, chordDist pairs
+	private readonly segIds: Int32Array; // per-query scratch: candidate segments
+	private readonly segD: Float64Array;
+	private readonly segS: Float64Array;
 	private readonly p = new Float64Array(3);
+	// two reusable results: nearest() keeps the best segment's while refining another
+	private readonly slotA: Refined = { d: Infinity, s: 0, lon: 0, lat: 0, alpha: 0, beta: 0 };
+	private readonly slotB: Refined = { d: Infinity, s: 0, lon: 0, lat: 0, alpha: 0, beta: 0 };
 
 	constructor(lines: readonly (readonly LonLat[])[]) {
 		this.lineCount = lines.length;
@@ -342,6 +348,9 @@ export class PolylineIndex {
 		this.build(0, m);
 		this.stack = new Int32Array(2 * Math.ceil(Math.log2(maxNodes + 1)) + 8);
 		this.cand = new Float64Array(2 * m);
+		this.segIds = new Int32Array(this.segments.length);
+		this.segD = new Float64Array(this.segments.length);
+		this.segS = new Float64Array(this.segments.length);
 	}
 
 	/** Build a node over pieces [lo, hi) and return its index. */
@@ -498,25 +507,39 @@ export class PolylineIndex {
 			z = p[2];
 		const nc = this.candidates(x, y, z);
 		if (!exact) return this.fastResult(nc, x, y, z);
-		// Best candidate piece per segment, in order of chord distance.
-		const segBest = new Map<number, { d: number; s: number }>();
+		// Best candidate piece per segment (usually one or two segments), nearest chord first.
+		const ids = this.segIds;
+		const ds = this.segD;
+		const ss = this.segS;
+		let k = 0;
 		for (let i = 0; i < nc; i++) {
 			const j = this.cand[2 * i];
 			const d = this.cand[2 * i + 1];
 			const sg = this.pSeg[j];
-			const cur = segBest.get(sg);
-			if (!cur || d < cur.d) {
+			let at = 0;
+			while (at < k && ids[at] !== sg) at++;
+			if (at === k || d < ds[at]) {
 				this.pieceDist2(j, x, y, z);
-				segBest.set(sg, { d, s: this.pS0[j] + this.tParam * this.pSLen[j] });
+				ids[at] = sg;
+				ds[at] = d;
+				ss[at] = this.pS0[j] + this.tParam * this.pSLen[j];
+				if (at === k) k++;
 			}
 		}
-		const order = [...segBest.entries()].sort((a, b) => a[1].d - b[1].d);
 		let best: Refined | null = null;
 		let bestSeg = -1;
-		for (const [sg, { d, s }] of order) {
+		for (let n = 0; n < k; n++) {
+			let m = n;
+			for (let q = n + 1; q < k; q++) if (ds[q] < ds[m]) m = q;
+			const sg = ids[m];
+			const d = ds[m];
+			const s0 = ss[m];
+			ids[m] = ids[n];
+			ds[m] = ds[n];
+			ss[m] = ss[n];
 			// The straight chord is never longer than the geodesic: such a segment cannot win.
 			if (best && d - this.maxSag > best.d) continue;
-			const r = this.refine(sg, s, lon, lat);
+			const r = this.refine(sg, s0, lon, lat, best === this.slotA ? this.slotB : this.slotA);
 			if (!best || r.d < best.d) {
 				best = r;
 				bestSeg = sg;
@@ -542,7 +565,7 @@ export class PolylineIndex {
 					bs = this.pS0[j] + this.tParam * this.pSLen[j];
 				}
 			}
-			const r = this.refine(sg, bs, lon, lat);
+			const r = this.refine(sg, bs, lon, lat, best === this.slotA ? this.slotB : this.slotA);
 			if (!best || r.d < best.d) {
 				best = r;
 				bestSeg = sg;
@@ -556,11 +579,10 @@ export class PolylineIndex {
 	 * spherical along-track distance tan(Δs/R) = tan(d/R)·cos(β − α), with α the segment azimuth at
 	 * the trial foot and β the azimuth from it to the point; it converges in one or two steps.
 	 */
-	private refine(sg: number, s0: number, lon: number, lat: number): Refined {
+	private refine(sg: number, s0: number, lon: number, lat: number, out: Refined): Refined {
 		const seg = this.segments[sg];
 		const R = MEAN_RADIUS_M;
 		let s = Math.min(Math.max(s0, 0), seg.length);
-		let out: Refined = { d: Infinity, s, lon: 0, lat: 0, alpha: 0, beta: 0 };
 		for (let it = 0; it < 12; it++) {
 			const pos = seg.geo.Position(s, LATLON_AZI);
 			const fl = pos.lat2 ?? 0;
@@ -569,7 +591,12 @@ export class PolylineIndex {
 			const inv = geod.Inverse(fl, fo, lat, lon, DIST_AZI);
 			const d = inv.s12 ?? 0;
 			const beta = inv.azi1 ?? 0;
-			out = { d, s, lon: fo, lat: fl, alpha, beta };
+			out.d = d;
+			out.s = s;
+			out.lon = fo;
+			out.lat = fl;
+			out.alpha = alpha;
+			out.beta = beta;
 			if (d < 1e-9) break;
 			const ang = d / R;
 			const step = R * Math.atan2(Math.sin(ang) * Math.cos((beta - alpha) * DEG), Math.cos(ang));
@@ -582,7 +609,9 @@ export class PolylineIndex {
 			// share a reference meridian otherwise).
 			if (ds * ds < 2e-5 * d) {
 				const fin = seg.geo.Position(sNew, LATLON);
-				out = { d, s: sNew, lon: fin.lon2 ?? 0, lat: fin.lat2 ?? 0, alpha, beta };
+				out.s = sNew;
+				out.lon = fin.lon2 ?? 0;
+				out.lat = fin.lat2 ?? 0;
 				break;
 			}
 			s = sNew;

@@ -47,6 +47,9 @@ export interface RidgeDepthOptions {
 	meltModel?: MeltModelId;
 }
 
+const EXACT = { exact: true };
+const FAST = { exact: false };
+
 export interface DepthAt extends PredictedDepth {
 	ageMa: number;
 	axisDistanceM: number;
@@ -126,10 +129,17 @@ export class RidgeDepthModel {
 
 	/** exact: geodesic refinement (default); false: the fast chord path for grids. */
 	depthAt(lon: number, lat: number, exact = true): DepthAt {
-		const a = this.ages.ageAt(lon, lat, { exact });
+		const a = this.ages.ageAt(lon, lat, exact ? EXACT : FAST);
 		const ageMa = Math.min(a.ageMa, MAX_PLATE_AGE_MA);
 		const p = this.predictors[a.segment](ageMa);
-		return { ...p, ageMa, axisDistanceM: a.axisDistanceM, segment: a.segment };
+		return {
+			depthM: p.depthM,
+			lowM: p.lowM,
+			highM: p.highM,
+			ageMa,
+			axisDistanceM: a.axisDistanceM,
+			segment: a.segment
+		};
 	}
 }
 

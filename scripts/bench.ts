@@ -1,0 +1,107 @@
+/**
+ * Engine benchmark: `npm run bench`. Prints the median of several runs (ms) for
+ * (a) a 2000 km line sampled every 100 m (20 001 samples), full depth profile against ridge axes
+ *     of 50, 500 and 5000 vertices — the nearest-point search should grow about log(n);
+ * (b) a 500 × 500 predicted-depth grid;
+ * (c) one melting column (uncached);
+ * (d) one depth-adaptive line plan over a 100 × 60 km area.
+ */
+import { depthProfileForRidges, depthGrid, RidgeDepthModel } from '../src/lib/engine/profile';
+import { direct, type LonLat } from '../src/lib/engine/geodesy';
+import { meltColumn } from '../src/lib/engine/melt';
+import { planSurvey } from '../src/lib/engine/survey';
+
+function median(xs: number[]): number {
+	const s = xs.slice().sort((a, b) => a - b);
+	const m = s.length >> 1;
+	return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
+}
+
+function time(runs: number, warmup: number, f: (i: number) => unknown): number {
+	for (let i = 0; i < warmup; i++) f(-1 - i);
+	const t: number[] = [];
+	for (let i = 0; i < runs; i++) {
+		const t0 = performance.now();
+		f(i);
+		t.push(performance.now() - t0);
+	}
+	return median(t);
+}
+
+/** A wiggly, north-trending axis 1000 km long near 26°N (Atlantic-like), with n vertices. */
+function axis(n: number): LonLat[] {
+	const pts: LonLat[] = [];
+	for (let i = 0; i < n; i++) {
+		const t = i / (n - 1);
+		pts.push([-44.8 + 0.08 * Math.sin(t * 37) + 0.03 * Math.sin(t * 211), 21.5 + 9 * t]);
+	}
+	return pts;
+}
+
+const report: [string, number, string][] = [];
+
+// (a) 2000 km line across the axis, every 100 m
+const centre: LonLat = [-44.8, 26];
+const a = direct(centre, 95, -1000e3);
+const b = direct(centre, 95, 1000e3);
+const line: LonLat[] = [
+	[a.lon, a.lat],
+	[b.lon, b.lat]
+];
+for (const n of [50, 500, 5000]) {
+	const ridges = [{ axis: axis(n), fullRateMmYr: 23 }];
+	let count = 0;
+	const ms = time(9, 2, () => {
+		count = depthProfileForRidges(line, ridges, { spacingKm: 0.1 }).samples.length;
+	});
+	report.push([
+		`(a) depth profile, ${count} samples, ${n}-vertex axis`,
+		ms,
+		n === 500 ? '< 100' : ''
+	]);
+}
+
+// (b) 500 × 500 grid over 10° × 10° around the axis
+{
+	const ridges = [{ axis: axis(500), fullRateMmYr: 23 }];
+	const ms = time(5, 1, () => depthGrid([-50, 21, -40, 31], 500, 500, ridges));
+	report.push(['(b) 500 × 500 depth grid', ms, '< 1000']);
+}
+
+// (c) one melting column, McKenzie & Bickle, step 1e-3 GPa; a new Tp each run defeats the memo
+{
+	const ms = time(15, 3, (i) => meltColumn(1350 + (i + 10) * 1e-7));
+	report.push(['(c) one melting column (M&B88, 1350 °C)', ms, '< 20']);
+}
+
+// (d) depth-adaptive plan over a 100 km × 60 km area on the east flank
+{
+	const depth = new RidgeDepthModel([{ axis: axis(500), fullRateMmYr: 23 }]);
+	const sw = direct([-44.8, 25.5], 90, 8000);
+	const se = direct([sw.lon, sw.lat], 90, 60_000);
+	const ne = direct([se.lon, se.lat], 0, 100_000);
+	const nw = direct([sw.lon, sw.lat], 0, 100_000);
+	const polygon: LonLat[] = [
+		[sw.lon, sw.lat],
+		[se.lon, se.lat],
+		[ne.lon, ne.lat],
+		[nw.lon, nw.lat]
+	];
+	let lines = 0;
+	const ms = time(9, 2, () => {
+		const plan = planSurvey(polygon, (lon, lat) => depth.depthAt(lon, lat, false).depthM, {
+			headingDeg: 0,
+			overlap: 0.3,
+			swathAngleDeg: 120
+		});
+		lines = plan.lines.length;
+	});
+	report.push([`(d) depth-adaptive plan, 100 × 60 km, ${lines} lines`, ms, '< 200']);
+}
+
+console.log('Wakeline engine benchmark — medians (ms)');
+for (const [name, ms, target] of report) {
+	console.log(
+		`${name.padEnd(58)} ${ms.toFixed(1).padStart(8)} ms${target ? `   target ${target}` : ''}`
+	);
+}
