@@ -418,19 +418,25 @@ export function bulkEditLines(
 	ids: string[],
 	props: { surveySpeedKn?: number; overlapPct?: number }
 ): number {
-	const res = db
-		.update(surveyLine)
-		.set(props)
-		.where(and(eq(surveyLine.cruiseId, cruiseId), inArray(surveyLine.id, ids)))
-		.run();
-	if (res.changes !== ids.length)
-		throw new ApiError(
-			404,
-			`${ids.length - res.changes} of the lines are not on this cruise; nothing was changed.`
-		);
-	audit(db, { userId: actorId, cruiseId, action: 'plan.lines.bulk', detail: { ids, props } });
-	touch(cruiseId);
-	return res.changes;
+	const unique = [...new Set(ids)];
+	return db.transaction((tx) => {
+		const where = and(eq(surveyLine.cruiseId, cruiseId), inArray(surveyLine.id, unique));
+		const found = tx.select({ id: surveyLine.id }).from(surveyLine).where(where).all().length;
+		if (found !== unique.length)
+			throw new ApiError(
+				404,
+				`${unique.length - found} of the lines are not on this cruise; nothing was changed.`
+			);
+		tx.update(surveyLine).set(props).where(where).run();
+		audit(tx, {
+			userId: actorId,
+			cruiseId,
+			action: 'plan.lines.bulk',
+			detail: { ids: unique, props }
+		});
+		tx.update(cruise).set({ updatedAt: new Date() }).where(eq(cruise.id, cruiseId)).run();
+		return found;
+	});
 }
 
 // ---------------------------------------------------------------- interchange with the formats
