@@ -6,6 +6,7 @@
  * (c) one melting column (uncached);
  * (d) one depth-adaptive line plan over a 100 × 60 km area.
  */
+import { cpus, loadavg } from 'node:os';
 import { depthProfileForRidges, depthGrid, RidgeDepthModel } from '../src/lib/engine/profile';
 import { direct, type LonLat } from '../src/lib/engine/geodesy';
 import { meltColumn } from '../src/lib/engine/melt';
@@ -17,15 +18,20 @@ function median(xs: number[]): number {
 	return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
 }
 
-function time(runs: number, warmup: number, f: (i: number) => unknown): number {
+/** Median wall-clock and process CPU time (ms) over `runs` after `warmup` runs. */
+function time(runs: number, warmup: number, f: (i: number) => unknown): [number, number] {
 	for (let i = 0; i < warmup; i++) f(-1 - i);
-	const t: number[] = [];
+	const wall: number[] = [];
+	const cpu: number[] = [];
 	for (let i = 0; i < runs; i++) {
+		const c0 = process.cpuUsage();
 		const t0 = performance.now();
 		f(i);
-		t.push(performance.now() - t0);
+		wall.push(performance.now() - t0);
+		const c = process.cpuUsage(c0);
+		cpu.push((c.user + c.system) / 1000);
 	}
-	return median(t);
+	return [median(wall), median(cpu)];
 }
 
 /** A wiggly, north-trending axis 1000 km long near 26°N (Atlantic-like), with n vertices. */
@@ -38,7 +44,7 @@ function axis(n: number): LonLat[] {
 	return pts;
 }
 
-const report: [string, number, string][] = [];
+const report: [string, [number, number], string][] = [];
 
 // (a) 2000 km line across the axis, every 100 m
 const centre: LonLat = [-44.8, 26];
@@ -99,9 +105,15 @@ for (const n of [50, 500, 5000]) {
 	report.push([`(d) depth-adaptive plan, 100 × 60 km, ${lines} lines`, ms, '< 200']);
 }
 
-console.log('Wakeline engine benchmark — medians (ms)');
-for (const [name, ms, target] of report) {
+const load = loadavg()[0];
+console.log(
+	`Wakeline engine benchmark — medians in ms (wall clock; process CPU beside it). ` +
+		`${cpus().length} CPUs, 1-min load average ${load.toFixed(2)}` +
+		(load > cpus().length ? ' — the machine is busy, wall times are inflated' : '')
+);
+for (const [name, [wall, cpu], target] of report) {
 	console.log(
-		`${name.padEnd(58)} ${ms.toFixed(1).padStart(8)} ms${target ? `   target ${target}` : ''}`
+		`${name.padEnd(56)} ${wall.toFixed(1).padStart(8)} ms  (cpu ${cpu.toFixed(1).padStart(7)})` +
+			(target ? `   target ${target}` : '')
 	);
 }

@@ -179,7 +179,7 @@ export type Side = 'left' | 'right' | 'on';
 export interface NearestResult {
 	/** Geodesic distance from the query point to the nearest point of the polylines. */
 	distanceM: number;
-	/** The nearest point itself. */
+	/** The nearest point itself (NaN in the fast mode, which does not locate it on the ellipsoid). */
 	lon: number;
 	lat: number;
 	/** Which polyline (index into the constructor's list). */
