@@ -1,27 +1,11 @@
 // Plan features as the API takes them: GeoJSON geometry (WGS84, [lon, lat]) plus settings per kind.
 // Coordinates are checked here so that a bad position is refused with its place named.
 import { z } from 'zod';
+import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
+import { lonLatPosition } from './depthProfile';
 
-const finite = z.number().refine(Number.isFinite, 'must be a finite number');
-
-/** A [lon, lat] position; says when the pair looks swapped. */
-export const position = z
-	.tuple([finite, finite])
-	.rest(finite)
-	.superRefine(([lon, lat], ctx) => {
-		if (Math.abs(lat) > 90) {
-			ctx.addIssue({
-				code: 'custom',
-				message:
-					Math.abs(lon) <= 90
-						? `latitude ${lat} is beyond ±90; positions are [longitude, latitude] — swapped?`
-						: `latitude ${lat} is beyond ±90`
-			});
-		}
-		if (Math.abs(lon) > 180)
-			ctx.addIssue({ code: 'custom', message: `longitude ${lon} is beyond ±180` });
-	})
-	.transform(([lon, lat]) => [lon, lat] as [number, number]);
+// One definition of a valid [lon, lat] position, shared with the depth-profile API.
+const position = lonLatPosition;
 
 export const lineString = z.object({
 	type: z.literal('LineString'),
@@ -40,7 +24,12 @@ export const point = z.object({ type: z.literal('Point'), coordinates: position 
 export const ridgeProps = z.object({
 	fullRateMmYr: z.number().positive('the full spreading rate must be above 0').max(250),
 	asymmetry: z.number().min(0).max(1).default(0.5),
-	potentialTemperatureC: z.number().min(1100).max(1700).nullable().default(null),
+	potentialTemperatureC: z
+		.number()
+		.min(1000)
+		.max(MAX_POTENTIAL_TEMPERATURE_C)
+		.nullable()
+		.default(null),
 	axialDepthM: z.number().min(0).max(8000).nullable().default(null)
 });
 

@@ -1,9 +1,8 @@
 // Server-side computation of a plan's derived values with the shared engine: predicted depths along
 // lines and at stations, line lengths and times, station durations. Authoritative for saved plans.
-import { RidgeAgeModel } from '$lib/engine/age';
-import { makeDepthPredictor, type DepthModelId, type PredictedDepth } from '$lib/engine/depth';
+import type { DepthModelId, PredictedDepth } from '$lib/engine/depth';
 import { lineLengthM, sampleLine } from '$lib/engine/geodesy';
-import { airyShiftFromPotentialTemperatureM } from '$lib/engine/melt';
+import { RidgeDepthModel } from '$lib/engine/profile';
 import { stationHours, type StationKind, type StationSettings } from '$lib/engine/stations';
 import type { Cruise, RidgeSegment, Station, SurveyLine, Vessel } from './db/schema';
 
@@ -44,29 +43,17 @@ export function planSettings(r: {
 	const model = r.cruise.depthModel;
 	if (r.ridges.length === 0) return { model, vessel, depthAt: () => null };
 
-	const ages = new RidgeAgeModel(
-		r.ridges.map((s) => ({ axis: s.axis, fullRateMmYr: s.fullRateMmYr, asymmetry: s.asymmetry }))
+	const depth = new RidgeDepthModel(
+		r.ridges.map((x) => ({
+			axis: x.axis,
+			fullRateMmYr: x.fullRateMmYr,
+			asymmetry: x.asymmetry,
+			potentialTemperatureC: x.potentialTemperatureC ?? undefined,
+			axialDepthM: x.axialDepthM ?? undefined
+		})),
+		{ model }
 	);
-	// Each segment's curve is anchored to its measured axial depth, or shifted by the Airy effect
-	// of the crust its mantle temperature makes, or left on the reference curve.
-	const predictors = r.ridges.map((s) =>
-		makeDepthPredictor(
-			model,
-			s.axialDepthM != null
-				? { axialDepthM: s.axialDepthM }
-				: s.potentialTemperatureC != null
-					? { airyShiftM: airyShiftFromPotentialTemperatureM(s.potentialTemperatureC) }
-					: {}
-		)
-	);
-	return {
-		model,
-		vessel,
-		depthAt: (lon, lat) => {
-			const a = ages.ageAt(lon, lat);
-			return { ...predictors[a.segment](a.ageMa), ageMa: a.ageMa };
-		}
-	};
+	return { model, vessel, depthAt: (lon, lat) => depth.depthAt(lon, lat) };
 }
 
 export interface LineValues {
