@@ -8,6 +8,15 @@ const H_MS = 3_600_000;
 
 export const utcDay = (ms: number) => Math.floor(ms / DAY_MS) * DAY_MS;
 
+/** The same day of the month `months` earlier, in UTC; clamped to that month's last day. */
+export function monthsBefore(ms: number, months: number): number {
+	const d = new Date(ms);
+	const y = d.getUTCFullYear();
+	const m = d.getUTCMonth() - months;
+	const last = new Date(Date.UTC(y, m + 1, 0)).getUTCDate();
+	return Date.UTC(y, m, Math.min(d.getUTCDate(), last));
+}
+
 /** Back alongside at home: the end of the weather margin, before demobilisation. */
 export function returnAt(t: Timeline): number {
 	const sea = t.events.filter((e) => e.kind !== 'demobilisation' && e.kind !== 'mobilisation');
@@ -104,7 +113,12 @@ export interface DayRow {
 }
 
 /** One row per UTC calendar day the timeline touches, hours per category summing to 24 at sea. */
-export function dayRows(t: Timeline, departureAt: number): DayRow[] {
+export function dayRows(
+	t: Timeline,
+	input: Pick<TimelineInput, 'departure' | 'clockChanges'>
+): DayRow[] {
+	const departureAt = input.departure.at;
+	const changes = [...(input.clockChanges ?? [])].sort((a, b) => a.at - b.at);
 	if (!t.events.length) return [];
 	const first = utcDay(Math.min(...t.events.map((e) => e.start)));
 	const lastEnd = Math.max(...t.events.map((e) => e.end));
@@ -121,10 +135,10 @@ export function dayRows(t: Timeline, departureAt: number): DayRow[] {
 			alongside: 0
 		};
 		const work: string[] = [];
-		let offsetMinutes = t.events[0].localOffsetMinutes;
+		let offsetMinutes = input.departure.utcOffsetMinutes ?? 0;
+		for (const c of changes) if (c.at <= day) offsetMinutes = c.utcOffsetMinutes;
 		for (const e of t.events) {
 			const overlap = Math.min(e.end, next) - Math.max(e.start, day);
-			if (e.start <= day) offsetMinutes = e.localOffsetMinutes;
 			if (overlap <= 0) continue;
 			hours[CATEGORY[e.kind]] += overlap / H_MS;
 			if (

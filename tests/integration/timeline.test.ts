@@ -83,9 +83,7 @@ describe('GET /api/v1/cruises/{id}/timeline', () => {
 
 describe('the order of work', () => {
 	it('only the chief scientist may reorder; a bad order is refused with the reason', async () => {
-		const { items } = await (
-			await get(`/api/v1/cruises/${cruiseId}/timeline/order`, chief)
-		).json();
+		const { items } = await (await get(`/api/v1/cruises/${cruiseId}/timeline/order`, chief)).json();
 		expect(items.length).toBeGreaterThan(20);
 		const same = items.map((i: { id: string; reversed: boolean }) => ({
 			id: i.id,
@@ -102,9 +100,7 @@ describe('the order of work', () => {
 
 	it('reordering and reversing a line change the timeline; the clearance then warns', async () => {
 		const before = await (await get(`/api/v1/cruises/${cruiseId}/timeline`, chief)).json();
-		const { items } = await (
-			await get(`/api/v1/cruises/${cruiseId}/timeline/order`, chief)
-		).json();
+		const { items } = await (await get(`/api/v1/cruises/${cruiseId}/timeline/order`, chief)).json();
 		// Run the first line the other way and swap the first two items.
 		const next = items.map((i: { id: string; kind: string; reversed: boolean }, k: number) => ({
 			id: i.id,
@@ -167,8 +163,12 @@ describe('the calendar export', () => {
 	});
 
 	it('keeps UIDs and raises SEQUENCE only for the events that changed', async () => {
-		const first = vevents(await (await get(`/api/v1/cruises/${cruiseId}/calendar.ics`, chief)).text());
-		const again = vevents(await (await get(`/api/v1/cruises/${cruiseId}/calendar.ics`, chief)).text());
+		const first = vevents(
+			await (await get(`/api/v1/cruises/${cruiseId}/calendar.ics`, chief)).text()
+		);
+		const again = vevents(
+			await (await get(`/api/v1/cruises/${cruiseId}/calendar.ics`, chief)).text()
+		);
 		expect(again.map((e) => [e.uid, e.sequence])).toEqual(first.map((e) => [e.uid, e.sequence]));
 
 		// Add two hours to the turn time: every line after the first turn moves.

@@ -6,7 +6,7 @@
 import { createHash } from 'node:crypto';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { Timeline } from '../engine/timeline';
-import { utcDay } from '../schedule';
+import { monthsBefore, utcDay } from '../schedule';
 import { ApiError } from './api';
 import { audit } from './audit';
 import { db as appDb } from './db';
@@ -21,16 +21,7 @@ type Writer = Pick<Db, 'select' | 'insert' | 'update' | 'delete' | 'transaction'
 const DAY_MS = 86_400_000;
 export const DEFAULT_LEAD_MONTHS = 6;
 
-/** The same day of the month `months` earlier, in UTC; clamped to the month's last day. */
-export function monthsBefore(ms: number, months: number): number {
-	const d = new Date(ms);
-	const y = d.getUTCFullYear();
-	const m = d.getUTCMonth() - months;
-	const last = new Date(Date.UTC(y, m + 1, 0)).getUTCDate();
-	return Date.UTC(y, m, Math.min(d.getUTCDate(), last));
-}
-
-export { utcDay };
+export { monthsBefore, utcDay };
 
 /**
  * When the ship first enters the state's waters: the start of the transit that leads to the first
