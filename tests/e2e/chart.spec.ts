@@ -1,0 +1,183 @@
+import { expect, test, type Page } from '@playwright/test';
+import { DEMO, shot, signInAs } from './fixtures';
+
+async function openChart(page: Page, email: string) {
+	await signInAs(page, email);
+	await page.getByRole('list', { name: 'Cruises' }).getByRole('link').first().click();
+	await page.getByRole('link', { name: 'Chart' }).click();
+	await expect(page.getByRole('application', { name: 'Cruise chart' })).toHaveAttribute(
+		'data-ready',
+		'true',
+		{ timeout: 30_000 }
+	);
+	// Let the basemap, isobaths and labels settle before looking.
+	await page.waitForTimeout(1500);
+}
+
+/** Clicks at fractions of the chart's width and height, slowly enough not to double-click. */
+async function clickChart(page: Page, points: [number, number][]) {
+	const box = (await page.getByRole('application', { name: 'Cruise chart' }).boundingBox())!;
+	for (const [fx, fy] of points) {
+		await page.mouse.click(box.x + fx * box.width, box.y + fy * box.height);
+		await page.waitForTimeout(400);
+	}
+}
+
+test('the demo cruise shows its whole plan on the chart, with nothing fetched from outside', async ({
+	page
+}) => {
+	const outside: string[] = [];
+	page.on('request', (r) => {
+		const u = new URL(r.url());
+		if (u.hostname !== '127.0.0.1' && !['data:', 'blob:'].includes(u.protocol))
+			outside.push(r.url());
+	});
+	await openChart(page, DEMO.chief);
+	const book = page.getByRole('table', { name: 'Line book' });
+	await expect(book).toContainText('N-X1');
+	await expect(book).toContainText('DIVE-02');
+	await expect(page.getByLabel('Depth legend')).toContainText('Isobaths every');
+	await expect(page.getByText('not for wire work or navigation').first()).toBeVisible();
+	// The cursor position reads in decimal degrees and degrees-decimal-minutes.
+	const box = (await page.getByRole('application', { name: 'Cruise chart' }).boundingBox())!;
+	await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+	await expect(page.getByLabel('Cursor position')).toContainText(
+		/-\d+\.\d{5}, -\d+\.\d{5} · \d+°\d+\.\d{3}′S/
+	);
+	await shot(page, 'chart-demo');
+	await page.getByLabel('Shaded depth').check();
+	await page.waitForTimeout(800);
+	await shot(page, 'chart-demo-shaded');
+	expect(outside).toEqual([]);
+});
+
+test('the chief scientist draws a ridge axis and a line and sees the predicted profile', async ({
+	page
+}) => {
+	await openChart(page, DEMO.chief);
+	await page.getByRole('button', { name: 'Ridge axis' }).click();
+	await clickChart(page, [
+		[0.12, 0.15],
+		[0.13, 0.85],
+		[0.13, 0.85]
+	]);
+	const panel = page.getByRole('form', { name: 'New or changed feature' });
+	await expect(panel.getByRole('heading', { name: 'New ridge segment' })).toBeVisible();
+	await panel.getByLabel('Name').fill('West spur');
+	await panel.getByLabel('Full rate (mm/yr)').fill('24');
+	await panel.getByLabel('Measured axial depth (m)').fill('3100');
+	await panel.getByRole('button', { name: 'Save' }).click();
+	await expect(page.getByRole('status')).toHaveText('Saved West spur.');
+
+	await page.getByRole('button', { name: 'Line', exact: true }).click();
+	await clickChart(page, [
+		[0.04, 0.5],
+		[0.24, 0.52],
+		[0.24, 0.52]
+	]);
+	await expect(panel.getByRole('heading', { name: 'New survey line' })).toBeVisible();
+	const figures = page.getByRole('region', { name: 'Live figures' });
+	await expect(figures.getByLabel('Line figures')).toContainText('nm');
+	await expect(figures.getByLabel('Line figures')).toContainText(/Depth\s*3,\d{3}–\d,\d{3} m/);
+	const profile = page.getByRole('figure', { name: 'Predicted profile along the line' });
+	await expect(profile.locator('svg').first()).toBeVisible();
+	await expect(profile).toContainText('Predicted depth (m)');
+	await expect(profile).toContainText('Distance along the line (km)');
+	await shot(page, 'chart-draw-line');
+	await panel.getByLabel('Survey speed (kn)').fill('9');
+	await panel.getByRole('button', { name: 'Save' }).click();
+	await expect(page.getByRole('status')).toHaveText(/^Saved L-\d+\.$/);
+	await expect(page.getByRole('table', { name: 'Line book' })).toContainText('L-1');
+});
+
+test('a station typed in degrees and decimal minutes is shown on the chart, saved and undone', async ({
+	page
+}) => {
+	await openChart(page, DEMO.chief);
+	const place = page.getByRole('form', { name: 'Place by coordinates' });
+	await place.getByLabel('Kind').selectOption('station');
+	await place.getByLabel('Positions').fill('30 12.500 S 146 24.000 W');
+	await place.getByRole('button', { name: 'Show on chart' }).click();
+	const panel = page.getByRole('form', { name: 'New or changed feature' });
+	await expect(panel.getByRole('list', { name: 'Positions' })).toHaveText(
+		'30°12.500′S 146°24.000′W'
+	);
+	await expect(page.getByLabel('Station figures')).toContainText(/Predicted depth\s*\d,\d{3} m/);
+	await shot(page, 'chart-typed-station');
+	await panel.getByLabel('Station kind').selectOption('dredge');
+	await expect(panel.getByLabel('Name')).toHaveValue('DR-04');
+	await panel.getByRole('button', { name: 'Save' }).click();
+	await expect(page.getByRole('status')).toHaveText('Saved DR-04.');
+	await expect(page.getByRole('table', { name: 'Line book' })).toContainText('DR-04');
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(page.getByRole('status')).toHaveText('Undone: add station DR-04.');
+	await expect(page.getByRole('table', { name: 'Line book' })).not.toContainText('DR-04');
+
+	// A position that cannot be read is named, not guessed.
+	await place.getByLabel('Positions').fill('95 12.5 N 146 W');
+	await place.getByRole('button', { name: 'Show on chart' }).click();
+	await expect(place.getByRole('alert')).toContainText('Row 1');
+});
+
+test('the chief scientist generates lines over a survey area and accepts them', async ({
+	page
+}) => {
+	await openChart(page, DEMO.chief);
+	await page.getByRole('button', { name: 'Area', exact: true }).click();
+	await clickChart(page, [
+		[0.62, 0.2],
+		[0.8, 0.2],
+		[0.8, 0.34],
+		[0.62, 0.34],
+		[0.62, 0.2]
+	]);
+	const panel = page.getByRole('form', { name: 'New or changed feature' });
+	await expect(panel.getByRole('heading', { name: 'New survey area' })).toBeVisible();
+	await panel.getByLabel('Name').fill('East box');
+	await page.getByRole('button', { name: 'Generate lines' }).click();
+	const stats = page.getByLabel('Generated lines');
+	await expect(stats).toContainText('Total time');
+	const count = Number(await stats.locator('dd').first().textContent());
+	expect(count).toBeGreaterThan(1);
+	await shot(page, 'chart-area-lines');
+	await page.getByRole('button', { name: `Accept ${count} lines` }).click();
+	await expect(page.getByRole('status')).toHaveText(`Added ${count} lines over East box.`);
+	await expect(page.getByRole('table', { name: 'Line book' })).toContainText('East box-01');
+
+	// Bulk edit in the line book.
+	await page.getByRole('checkbox', { name: 'Choose East box-01' }).check();
+	await page.getByRole('checkbox', { name: 'Choose East box-02' }).check();
+	const bulk = page.getByRole('form', { name: 'Bulk edit' });
+	await bulk.getByLabel('Speed (kn)').fill('9.5');
+	await bulk.getByRole('button', { name: 'Apply to chosen' }).click();
+	await expect(page.getByRole('status')).toHaveText('Changed 2 lines.');
+	await shot(page, 'chart-line-book');
+});
+
+test('a participant sees the plan but cannot edit it', async ({ page }) => {
+	await openChart(page, DEMO.participant);
+	await expect(page.getByRole('toolbar', { name: 'Drawing tools' })).toHaveCount(0);
+	await expect(page.getByText('only the chief scientist edits it')).toBeVisible();
+	await expect(page.getByRole('form', { name: 'Place by coordinates' })).toHaveCount(0);
+	await expect(page.getByRole('form', { name: 'Bulk edit' })).toHaveCount(0);
+	await page
+		.getByRole('table', { name: 'Line book' })
+		.getByRole('button', { name: 'N-X3' })
+		.click();
+	const selectedPanel = page.getByRole('region', { name: 'Selected feature' });
+	await expect(selectedPanel.getByRole('heading', { name: 'N-X3' })).toBeVisible();
+	await expect(selectedPanel.getByLabel('Survey speed (kn)')).toBeDisabled();
+	await expect(selectedPanel.getByRole('button', { name: 'Edit' })).toHaveCount(0);
+	await expect(page.getByRole('region', { name: 'Live figures' })).toContainText('Time on line');
+	await shot(page, 'chart-participant');
+	const cruiseId = page.url().split('/cruises/')[1].split('/')[0];
+	const res = await page.request.post(`/api/v1/cruises/${cruiseId}/plan/features`, {
+		data: {
+			kind: 'station',
+			name: 'X',
+			geometry: { type: 'Point', coordinates: [-146, -30] },
+			properties: { stationKind: 'ctd', params: {} }
+		}
+	});
+	expect(res.status()).toBe(403);
+});
