@@ -86,8 +86,19 @@ export class RidgeAgeModel {
 	}
 
 	/** Nearest axis point under the domain rule above. */
+	private readonly scratch: NearestResult = {
+		distanceM: 0,
+		lon: 0,
+		lat: 0,
+		line: 0,
+		vertex: 0,
+		alongM: 0,
+		side: 'on',
+		atEnd: false
+	};
+
 	private nearest(lon: number, lat: number, options?: NearestOptions): NearestResult {
-		const n = this.index.nearest(lon, lat, options);
+		const n = this.index.nearest(lon, lat, options, this.scratch);
 		if (!n.atEnd || this.segments.length === 1) return n;
 		let best: NearestResult | null = null;
 		for (let k = 0; k < this.segments.length; k++) {

@@ -230,23 +230,29 @@ export function predictDepth(
 	return { depthM, lowM: lo - BAND_WIDEN_M, highM: hi + BAND_WIDEN_M };
 }
 
-/** Precomputed shifts for repeated predictions (profiles, grids). */
+/** Precomputed shifts for repeated predictions (profiles, grids); writes into `out` if given. */
 export function makeDepthPredictor(
 	model: DepthModelId = DEFAULT_DEPTH_MODEL,
 	shift: DepthShift = {}
-): (t: number) => PredictedDepth {
+): (t: number, out?: PredictedDepth) => PredictedDepth {
 	const sPs = curveShift('parsons-sclater-1977', shift);
 	const sGdh = curveShift('stein-stein-1992', shift);
 	const sHs = curveShift('half-space', shift);
-	return (t: number) => {
-		const a = depthParsonsSclater(t) + sPs;
-		const b = depthGdh1(t) + sGdh;
-		const c = depthHalfSpace(t) + sHs;
+	const hsCoefficient = halfSpaceCoefficient();
+	const hsRidge = HALF_SPACE_DEFAULTS.ridgeDepthM;
+	return (t: number, out?: PredictedDepth) => {
+		checkAge(t);
+		const a =
+			(t < PS77_SWITCH_AGE_MA ? depthParsonsSclaterYoung(t) : depthParsonsSclaterOld(t)) + sPs;
+		const b = (t < GDH1_SWITCH_AGE_MA ? depthGdh1Young(t) : depthGdh1Old(t)) + sGdh;
+		const c = hsRidge + hsCoefficient * Math.sqrt(t) + sHs;
 		const depthM = model === 'parsons-sclater-1977' ? a : model === 'stein-stein-1992' ? b : c;
-		return {
-			depthM,
-			lowM: Math.min(a, b, c, depthM) - BAND_WIDEN_M,
-			highM: Math.max(a, b, c, depthM) + BAND_WIDEN_M
-		};
+		const lowM = Math.min(a, b, c) - BAND_WIDEN_M;
+		const highM = Math.max(a, b, c) + BAND_WIDEN_M;
+		if (!out) return { depthM, lowM, highM };
+		out.depthM = depthM;
+		out.lowM = lowM;
+		out.highM = highM;
+		return out;
 	};
 }

@@ -497,8 +497,13 @@ export class PolylineIndex {
 		return 2e-3 + 1e-6 * c * r * r;
 	}
 
-	/** Nearest point of the polylines to (lon, lat). */
-	nearest(lon: number, lat: number, options: NearestOptions = {}): NearestResult {
+	/** Nearest point of the polylines to (lon, lat); written into `out` when given (no allocation). */
+	nearest(
+		lon: number,
+		lat: number,
+		options: NearestOptions = {},
+		out?: NearestResult
+	): NearestResult {
 		const exact = options.exact !== false;
 		const p = this.p;
 		toEcef(lon, lat, p, 0);
@@ -506,7 +511,7 @@ export class PolylineIndex {
 			y = p[1],
 			z = p[2];
 		const nc = this.candidates(x, y, z);
-		if (!exact) return this.fastResult(nc, x, y, z);
+		if (!exact) return this.fastResult(nc, x, y, z, out);
 		// Best candidate piece per segment (usually one or two segments), nearest chord first.
 		const ids = this.segIds;
 		const ds = this.segD;
@@ -539,13 +544,32 @@ export class PolylineIndex {
 			ss[m] = ss[n];
 			// The straight chord is never longer than the geodesic: such a segment cannot win.
 			if (best && d - this.maxSag > best.d) continue;
+			if (best && this.sharedVertexSettles(bestSeg, best, sg)) continue;
 			const r = this.refine(sg, s0, lon, lat, best === this.slotA ? this.slotB : this.slotA);
 			if (!best || r.d < best.d) {
 				best = r;
 				bestSeg = sg;
 			}
 		}
-		return this.exactResult(bestSeg, best as Refined);
+		return this.exactResult(bestSeg, best as Refined, out);
+	}
+
+	/**
+	 * When the best foot so far is a vertex shared with segment `sg` and the geodesic to the point
+	 * leaves that vertex backwards relative to `sg` (cos(β − α) ≤ 0), the distance only grows
+	 * along `sg`: its nearest point is the same vertex, so refining it would change nothing.
+	 * (Skipped within 0.1° of a pole, where the two azimuths may not share a meridian.)
+	 */
+	private sharedVertexSettles(bestSeg: number, best: Refined, sg: number): boolean {
+		if (Math.abs(best.lat) > 89.9) return false;
+		const seg = this.segments[bestSeg];
+		if (best.s >= seg.length && seg.next === sg) {
+			return Math.cos((best.beta - this.segments[sg].azStart) * DEG) <= 0;
+		}
+		if (best.s <= 0 && seg.prev === sg) {
+			return Math.cos((best.beta - this.segments[sg].azEnd) * DEG) >= 0;
+		}
+		return false;
 	}
 
 	/** Nearest point by exact refinement on every segment: O(n), for tests and audits. */
@@ -619,7 +643,7 @@ export class PolylineIndex {
 		return out;
 	}
 
-	private exactResult(sg: number, r: Refined): NearestResult {
+	private exactResult(sg: number, r: Refined, out?: NearestResult): NearestResult {
 		const seg = this.segments[sg];
 		let side: Side;
 		let atEnd = false;
@@ -633,19 +657,26 @@ export class PolylineIndex {
 			else if ((atStart && seg.prev < 0) || (atStop && seg.next < 0)) atEnd = true;
 			side = Math.sin((r.beta - ref) * DEG) > 0 ? 'right' : 'left';
 		}
-		return {
-			distanceM: r.d,
-			lon: normalizeLon(r.lon),
-			lat: r.lat,
-			line: seg.line,
-			vertex: seg.vertex,
-			alongM: seg.alongStart + r.s,
+		return put(
+			out,
+			r.d,
+			normalizeLon(r.lon),
+			r.lat,
+			seg.line,
+			seg.vertex,
+			seg.alongStart + r.s,
 			side,
 			atEnd
-		};
+		);
 	}
 
-	private fastResult(nc: number, x: number, y: number, z: number): NearestResult {
+	private fastResult(
+		nc: number,
+		x: number,
+		y: number,
+		z: number,
+		out?: NearestResult
+	): NearestResult {
 		let bj = -1;
 		let bd = Infinity;
 		for (let i = 0; i < nc; i++) {
@@ -676,17 +707,32 @@ export class PolylineIndex {
 		const dot = (x - fx) * rx + (y - fy) * ry + (z - fz) * rz;
 		const distance = arcFromChord(bd);
 		const atEnd = (s <= 0 && seg.prev < 0) || (s >= seg.length && seg.next < 0);
-		return {
-			distanceM: distance,
-			lon: NaN,
-			lat: NaN,
-			line: seg.line,
-			vertex: seg.vertex,
-			alongM: seg.alongStart + s,
-			side: distance < 1e-6 ? 'on' : dot > 0 ? 'right' : 'left',
-			atEnd
-		};
+		const side = distance < 1e-6 ? 'on' : dot > 0 ? 'right' : 'left';
+		return put(out, distance, NaN, NaN, seg.line, seg.vertex, seg.alongStart + s, side, atEnd);
 	}
+}
+
+function put(
+	out: NearestResult | undefined,
+	distance: number,
+	lon: number,
+	lat: number,
+	line: number,
+	vertex: number,
+	alongM: number,
+	side: Side,
+	atEnd: boolean
+): NearestResult {
+	if (!out) return { distanceM: distance, lon, lat, line, vertex, alongM, side, atEnd };
+	out.distanceM = distance;
+	out.lon = lon;
+	out.lat = lat;
+	out.line = line;
+	out.vertex = vertex;
+	out.alongM = alongM;
+	out.side = side;
+	out.atEnd = atEnd;
+	return out;
 }
 
 interface Refined {

@@ -99,7 +99,8 @@ function checkRidge(field: string, r: RidgeInput): void {
 export class RidgeDepthModel {
 	readonly model: DepthModelId;
 	private readonly ages: RidgeAgeModel;
-	private readonly predictors: ((t: number) => PredictedDepth)[];
+	private readonly predictors: ((t: number, out?: PredictedDepth) => PredictedDepth)[];
+	private readonly scratch: PredictedDepth = { depthM: 0, lowM: 0, highM: 0 };
 
 	constructor(ridges: readonly RidgeInput[], options: RidgeDepthOptions = {}) {
 		if (ridges.length === 0) throw new EngineInputError('ridge', 'at least one ridge segment');
@@ -131,7 +132,7 @@ export class RidgeDepthModel {
 	depthAt(lon: number, lat: number, exact = true): DepthAt {
 		const a = this.ages.ageAt(lon, lat, exact ? EXACT : FAST);
 		const ageMa = Math.min(a.ageMa, MAX_PLATE_AGE_MA);
-		const p = this.predictors[a.segment](ageMa);
+		const p = this.predictors[a.segment](ageMa, this.scratch);
 		return {
 			depthM: p.depthM,
 			lowM: p.lowM,
@@ -209,10 +210,10 @@ export function depthProfileForRidges(
 				`at most ${MAX_PROFILE_SAMPLES} (use spacingKm ≥ ${min.toPrecision(3)})`
 		);
 	}
-	const samples: DepthProfileSample[] = new Array(s.count);
+	const samples: DepthProfileSample[] = [];
 	for (let i = 0; i < s.count; i++) {
 		const d = depth.depthAt(s.lon[i], s.lat[i]);
-		samples[i] = {
+		samples.push({
 			distanceKm: s.distanceM[i] / 1000,
 			lon: s.lon[i],
 			lat: s.lat[i],
@@ -222,7 +223,7 @@ export function depthProfileForRidges(
 			depthLowM: d.lowM,
 			depthHighM: d.highM,
 			swathWidthM: swathWidthM(d.depthM, angle, k)
-		};
+		});
 	}
 	return { samples, lengthKm, model: depth.model };
 }
