@@ -253,6 +253,28 @@ describe('PolylineIndex — nearest point of a polyline', () => {
 		}
 	});
 
+	it('equals brute force on a zig-zag axis, where far points find their foot at a vertex', () => {
+		const axis: LonLat[] = [];
+		for (let i = 0; i < 200; i++) axis.push([-30 + (i % 2 ? 0.05 : -0.05), 10 + i * 0.02]);
+		const idx = new PolylineIndex([axis]);
+		const rand = rng(99);
+		let atVertex = 0;
+		for (let q = 0; q < 150; q++) {
+			const lon = -30 + (rand() - 0.5) * 40;
+			const lat = 10 + rand() * 4;
+			const a = idx.nearest(lon, lat);
+			const b = idx.nearestBrute(lon, lat);
+			expect(Math.abs(a.distanceM - b.distanceM)).toBeLessThan(MM);
+			expect(a.side).toBe(b.side);
+			const v = axis[a.vertex + 1];
+			if (distanceM([a.lon, a.lat], v) < 1e-3 || distanceM([a.lon, a.lat], axis[a.vertex]) < 1e-3) {
+				atVertex++;
+			}
+		}
+		// the shortcut for feet on a shared vertex is exercised, not just present
+		expect(atVertex).toBeGreaterThan(50);
+	});
+
 	it('handles an axis across the antimeridian', () => {
 		const idx = new PolylineIndex([
 			[
