@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { RidgeAgeModel, ageFromDistance, distanceFromAge, halfRates } from './age';
+import {
+	RidgeAgeModel,
+	ageFromDistance,
+	distanceFromAge,
+	halfRates,
+	type RidgeSegment
+} from './age';
 import { direct, distanceM, sampleLine, type LonLat } from './geodesy';
 
 describe('age from distance', () => {
@@ -122,6 +128,82 @@ describe('RidgeAgeModel', () => {
 		// the axis distance is the geodesic distance to the foot
 		const n = model.ageAt(-46, 25.8);
 		expect(n.axisDistanceM).toBeLessThanOrEqual(distanceM([-46, 25.8], [-44.9, 25.5]));
+	});
+
+	it('agesAlong equals ageAt sample by sample (within 1 mm of axis distance)', () => {
+		const wiggly: LonLat[] = [];
+		for (let i = 0; i < 3000; i++) {
+			const t = i / 2999;
+			wiggly.push([-44.8 + 0.08 * Math.sin(t * 37) + 0.03 * Math.sin(t * 211), 24 + 4 * t]);
+		}
+		const zigzag: LonLat[] = [];
+		for (let i = 0; i < 60; i++) zigzag.push([-44.8 + (i % 2 ? 0.15 : -0.15), 24 + i * 0.07]);
+		const cases: { ridges: RidgeSegment[]; line: LonLat[] }[] = [
+			{
+				ridges: [{ axis: wiggly, fullRateMmYr: 23, asymmetry: 0.4 }],
+				line: [
+					[-47, 26.1],
+					[-42.5, 25.7]
+				]
+			},
+			{
+				ridges: [{ axis: zigzag, fullRateMmYr: 30 }],
+				line: [
+					[-46, 25.0],
+					[-44.9, 27.5],
+					[-43, 26]
+				]
+			},
+			{
+				ridges: [
+					{
+						axis: [
+							[-44.4, 26.0],
+							[-44.4, 27.0]
+						],
+						fullRateMmYr: 24
+					},
+					{
+						axis: [
+							[-45.0, 25.0],
+							[-45.0, 26.0]
+						],
+						fullRateMmYr: 18
+					}
+				],
+				line: [
+					[-42.9, 26.6],
+					[-42.9, 25.4],
+					[-46.5, 25.8]
+				]
+			},
+			{
+				ridges: [
+					{
+						axis: [
+							[179.7, -3],
+							[-179.8, 3]
+						],
+						fullRateMmYr: 140
+					}
+				],
+				line: [
+					[178, 0.5],
+					[-178, -0.5]
+				]
+			}
+		];
+		for (const { ridges, line } of cases) {
+			const model = new RidgeAgeModel(ridges);
+			const s = sampleLine(line, 250);
+			const along = model.agesAlong(s.lon, s.lat, s.distanceM);
+			for (let k = 0; k < s.count; k++) {
+				const one = model.ageAt(s.lon[k], s.lat[k]);
+				expect(Math.abs(along.axisDistanceM[k] - one.axisDistanceM)).toBeLessThan(1e-3);
+				expect(along.segment[k]).toBe(one.segment);
+				expect(Math.abs(along.ageMa[k] - one.ageMa)).toBeLessThan(1e-6 + 1e-9 * one.ageMa);
+			}
+		}
 	});
 
 	it('needs at least one segment', () => {

@@ -50,6 +50,17 @@ export function distanceFromAge(ageMa: number, halfRateMmYr: number): number {
 	return ageMa * halfRateMmYr;
 }
 
+const FAST: NearestOptions = { exact: false };
+const EXACT: NearestOptions = { exact: true };
+
+export interface AgesAlong {
+	ageMa: Float64Array;
+	/** Geodesic distance to the axis (m). */
+	axisDistanceM: Float64Array;
+	/** Ridge segment each age comes from. */
+	segment: Int32Array;
+}
+
 export interface AgeAt {
 	ageMa: number;
 	/** Geodesic distance to the nearest axis point of the chosen segment (m). */
@@ -112,6 +123,98 @@ export class RidgeAgeModel {
 			if (!m.atEnd && (!best || m.distanceM < best.distanceM)) best = { ...m, line: k };
 		}
 		return best ?? n;
+	}
+
+	/**
+	 * Ages for consecutive samples along a line, equal to `ageAt` per sample within 1 mm of axis
+	 * distance but several times faster. Every sample gets the fast chord distance d_c (with its
+	 * segment, flank and end state). Along a run of samples sharing those, the exact geodesic
+	 * distance d_g is refined at anchors (the run's ends and every `stride` samples) and in between
+	 * d_g = d_c·r with the ratio r = d_g/d_c interpolated linearly along the line: r − 1 is the
+	 * ellipsoid's small (≲ 1e-5) departure from the mean sphere, varying over hundreds of km, so a
+	 * stride of a few hundred metres leaves errors of micrometres. Where anchors disagree with the
+	 * fast ranking, or within 1 m of the axis, every sample is refined exactly.
+	 */
+	agesAlong(
+		lon: ArrayLike<number>,
+		lat: ArrayLike<number>,
+		alongM: ArrayLike<number>,
+		stride = 8
+	): AgesAlong {
+		const n = lon.length;
+		const dist = new Float64Array(n);
+		const seg = new Int32Array(n);
+		const flank = new Int8Array(n);
+		const key = new Float64Array(n);
+		const vertex = new Int32Array(n);
+		const foot = new Float64Array(n);
+		const done = new Uint8Array(n);
+		const keyOf = (r: NearestResult) =>
+			(r.line * 3 + (r.side === 'left' ? 0 : r.side === 'right' ? 2 : 1)) * 2 + (r.atEnd ? 1 : 0);
+		const put = (k: number, r: NearestResult) => {
+			dist[k] = r.distanceM;
+			seg[k] = r.line;
+			flank[k] = r.side === 'left' ? -1 : r.side === 'right' ? 1 : 0;
+		};
+		for (let k = 0; k < n; k++) {
+			const r = this.nearest(lon[k], lat[k], FAST);
+			put(k, r);
+			key[k] = keyOf(r);
+			vertex[k] = r.vertex;
+			foot[k] = r.alongM;
+		}
+		// A run continues while segment domain, flank and end state stay the same and the foot
+		// slides continuously along the axis (onto the next vertex at most, no further than the
+		// sample step): then d_g/d_c is smooth. A foot that jumps (the inside of a bend, another
+		// branch of the axis) starts a new run.
+		const continues = (k: number) =>
+			key[k] === key[k - 1] &&
+			Math.abs(vertex[k] - vertex[k - 1]) <= 1 &&
+			Math.abs(foot[k] - foot[k - 1]) <= 2 * Math.abs(alongM[k] - alongM[k - 1]) + 1;
+		/** Refine sample k exactly; true when it agrees with the fast ranking. */
+		const exact = (k: number): boolean => {
+			const r = this.nearest(lon[k], lat[k], EXACT);
+			const same = keyOf(r) === key[k] && Math.abs(r.vertex - vertex[k]) <= 1;
+			put(k, r);
+			done[k] = 1;
+			return same;
+		};
+		const fastD = Float64Array.from(dist);
+		let i0 = 0;
+		while (i0 < n) {
+			let i1 = i0;
+			while (i1 + 1 < n && continues(i1 + 1)) i1++;
+			for (let a = i0; a <= i1; a += stride) {
+				const b = Math.min(a + stride, i1);
+				const okA = done[a] ? true : exact(a);
+				const okB = b === a || done[b] ? true : exact(b);
+				if (b - a < 2) continue;
+				if (!okA || !okB || fastD[a] < 1 || fastD[b] < 1) {
+					for (let k = a + 1; k < b; k++) exact(k);
+					continue;
+				}
+				const ra = dist[a] / fastD[a];
+				const rb = dist[b] / fastD[b];
+				const span = alongM[b] - alongM[a];
+				for (let k = a + 1; k < b; k++) {
+					if (fastD[k] < 1) {
+						exact(k);
+						continue;
+					}
+					const t = span > 0 ? (alongM[k] - alongM[a]) / span : 0;
+					dist[k] = fastD[k] * (ra + t * (rb - ra));
+				}
+			}
+			i0 = i1 + 1;
+		}
+		const ageMa = new Float64Array(n);
+		for (let k = 0; k < n; k++) {
+			const r = this.rates[seg[k]];
+			const u =
+				flank[k] < 0 ? r.leftMmYr : flank[k] > 0 ? r.rightMmYr : 0.5 * (r.leftMmYr + r.rightMmYr);
+			ageMa[k] = ageFromDistance(dist[k] / 1000, u);
+		}
+		return { ageMa, axisDistanceM: dist, segment: seg };
 	}
 
 	ageAt(lon: number, lat: number, options?: NearestOptions): AgeAt {

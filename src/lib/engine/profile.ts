@@ -2,7 +2,7 @@
  * Predicted depth along a line and over a grid: the computation behind
  * `POST /api/v1/depth-profile` (DESIGN.md §6) and the isobath layer.
  */
-import { RidgeAgeModel, type RidgeSegment } from './age';
+import { RidgeAgeModel, type AgesAlong, type RidgeSegment } from './age';
 import {
 	DEFAULT_DEPTH_MODEL,
 	DEPTH_MODEL_IDS,
@@ -49,6 +49,12 @@ export interface RidgeDepthOptions {
 
 const EXACT = { exact: true };
 const FAST = { exact: false };
+
+export interface DepthsAlong extends AgesAlong {
+	depthM: Float64Array;
+	lowM: Float64Array;
+	highM: Float64Array;
+}
 
 export interface DepthAt extends PredictedDepth {
 	ageMa: number;
@@ -126,6 +132,31 @@ export class RidgeDepthModel {
 							})
 			})
 		);
+	}
+
+	/**
+	 * Predictions for consecutive samples of a line (see RidgeAgeModel.agesAlong): the same as
+	 * depthAt per sample to within 1 mm of axis distance, several times faster.
+	 */
+	alongLine(
+		lon: ArrayLike<number>,
+		lat: ArrayLike<number>,
+		alongM: ArrayLike<number>
+	): DepthsAlong {
+		const a = this.ages.agesAlong(lon, lat, alongM);
+		const n = lon.length;
+		const depthM = new Float64Array(n);
+		const lowM = new Float64Array(n);
+		const highM = new Float64Array(n);
+		for (let k = 0; k < n; k++) {
+			const ageMa = Math.min(a.ageMa[k], MAX_PLATE_AGE_MA);
+			a.ageMa[k] = ageMa;
+			const p = this.predictors[a.segment[k]](ageMa, this.scratch);
+			depthM[k] = p.depthM;
+			lowM[k] = p.lowM;
+			highM[k] = p.highM;
+		}
+		return { ...a, depthM, lowM, highM };
 	}
 
 	/** exact: geodesic refinement (default); false: the fast chord path for grids. */
@@ -211,18 +242,18 @@ export function depthProfileForRidges(
 		);
 	}
 	const samples: DepthProfileSample[] = [];
+	const d = depth.alongLine(s.lon, s.lat, s.distanceM);
 	for (let i = 0; i < s.count; i++) {
-		const d = depth.depthAt(s.lon[i], s.lat[i]);
 		samples.push({
 			distanceKm: s.distanceM[i] / 1000,
 			lon: s.lon[i],
 			lat: s.lat[i],
-			axisDistanceKm: d.axisDistanceM / 1000,
-			ageMa: d.ageMa,
-			depthM: d.depthM,
-			depthLowM: d.lowM,
-			depthHighM: d.highM,
-			swathWidthM: swathWidthM(d.depthM, angle, k)
+			axisDistanceKm: d.axisDistanceM[i] / 1000,
+			ageMa: d.ageMa[i],
+			depthM: d.depthM[i],
+			depthLowM: d.lowM[i],
+			depthHighM: d.highM[i],
+			swathWidthM: swathWidthM(d.depthM[i], angle, k)
 		});
 	}
 	return { samples, lengthKm, model: depth.model };
