@@ -6,7 +6,16 @@ import svelteConfig from './svelte.config.js';
 
 export default ts.config(
 	{
-		ignores: ['build/', '.svelte-kit/', 'node_modules/', 'drizzle/', 'data/', 'test-results/']
+		ignores: [
+			'build/',
+			'.builds/',
+			'.svelte-kit/',
+			'node_modules/',
+			'drizzle/',
+			'data/',
+			'test-results/',
+			'.e2e-data/'
+		]
 	},
 	js.configs.recommended,
 	...ts.configs.recommended,
