@@ -68,6 +68,8 @@ test('the chief scientist draws a ridge axis and a line and sees the predicted p
 	await panel.getByLabel('Measured axial depth (m)').fill('3100');
 	await panel.getByRole('button', { name: 'Save' }).click();
 	await expect(page.getByRole('status')).toHaveText('Saved West spur.');
+	await page.waitForTimeout(500);
+	await shot(page, 'chart-draw-ridge');
 
 	await page.getByRole('button', { name: 'Line', exact: true }).click();
 	await clickChart(page, [

@@ -161,12 +161,17 @@ export function lineFeedback(
 		};
 		const reach = Math.max(...swaths);
 		const gaps: LineFeedback['gaps'] = [];
+		const heading = initialBearingDeg(coords[0], coords[coords.length - 1]);
 		for (const n of neighbours) {
 			if (n.coords.length < 2) continue;
+			// Neighbours run alongside: within 30° of this line's direction, either way round.
+			const turn =
+				Math.abs(initialBearingDeg(n.coords[0], n.coords[n.coords.length - 1]) - heading) % 180;
+			if (Math.min(turn, 180 - turn) > 30) continue;
 			const index = new PolylineIndex([n.coords]);
 			const mid = s[Math.floor(s.length / 2)];
 			const near = index.nearest(mid.lon, mid.lat, { exact: false });
-			// Only lines run side by side with this one, within about two swaths, are neighbours.
+			// ... and within about two swaths of it.
 			if (near.atEnd || near.distanceM > 2 * reach) continue;
 			const q = depthProfileForRidges(n.coords, ridges, { ...options, spacingKm }).samples;
 			const found = coverageGaps(track, {

@@ -19,6 +19,7 @@ describe('isobathLevels', () => {
 		expect(wide.step).toBe(500);
 		expect(wide.majorStep).toBe(1000);
 		expect(wide.levels[0]).toBe(2500);
+		expect(isobathLevels(2300, 5300).majorStep).toBe(1000);
 		expect(isobathLevels(3000, 3000).levels).toEqual([]);
 	});
 });

@@ -34,7 +34,8 @@ export function isobathLevels(
 	const step =
 		STEPS.find((s) => (maxM - minM) / s <= maxLevels) ??
 		1000 * Math.ceil((maxM - minM) / maxLevels / 1000);
-	const majorStep = step >= 500 ? 1000 : step * 5;
+	// Label whole kilometres where the step divides them, else every fifth isobath.
+	const majorStep = step >= 200 && 1000 % step === 0 ? 1000 : step * 5;
 	const levels: number[] = [];
 	for (let d = Math.ceil(minM / step) * step; d <= maxM; d += step) {
 		if (d > minM) levels.push(d);
