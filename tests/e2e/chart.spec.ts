@@ -48,6 +48,13 @@ test('the demo cruise shows its whole plan on the chart, with nothing fetched fr
 	await page.getByLabel('Shaded depth').check();
 	await page.waitForTimeout(800);
 	await shot(page, 'chart-demo-shaded');
+	// The globe view for high latitudes: the graticule reaches the poles.
+	await page.getByLabel('Globe').check();
+	await page.getByRole('button', { name: 'Zoom out' }).click();
+	await page.getByRole('button', { name: 'Zoom out' }).click();
+	await page.getByRole('button', { name: 'Zoom out' }).click();
+	await page.waitForTimeout(1500);
+	await shot(page, 'chart-demo-globe');
 	expect(outside).toEqual([]);
 });
 
@@ -89,7 +96,15 @@ test('the chief scientist draws a ridge axis and a line and sees the predicted p
 	await panel.getByLabel('Survey speed (kn)').fill('9');
 	await panel.getByRole('button', { name: 'Save' }).click();
 	await expect(page.getByRole('status')).toHaveText(/^Saved L-\d+\.$/);
-	await expect(page.getByRole('table', { name: 'Line book' })).toContainText('L-1');
+	const book = page.getByRole('table', { name: 'Line book' });
+	await expect(book).toContainText('L-1');
+
+	// Undo takes the edits back one at a time (and leaves the demo plan as it was).
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(page.getByRole('status')).toHaveText(/^Undone: add line L-\d+\.$/);
+	await expect(book).not.toContainText('L-1');
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(page.getByRole('status')).toHaveText('Undone: add ridge segment West spur.');
 });
 
 test('a station typed in degrees and decimal minutes is shown on the chart, saved and undone', async ({
@@ -114,6 +129,23 @@ test('a station typed in degrees and decimal minutes is shown on the chart, save
 	await page.getByRole('button', { name: 'Undo' }).click();
 	await expect(page.getByRole('status')).toHaveText('Undone: add station DR-04.');
 	await expect(page.getByRole('table', { name: 'Line book' })).not.toContainText('DR-04');
+
+	// A saved station is changed through its panel, and the change undone.
+	await page
+		.getByRole('table', { name: 'Line book' })
+		.getByRole('button', { name: 'CTD-03' })
+		.click();
+	await page
+		.getByRole('region', { name: 'Selected feature' })
+		.getByRole('button', { name: 'Edit' })
+		.click();
+	await expect(panel.getByRole('heading', { name: 'Change station' })).toBeVisible();
+	await panel.getByLabel('Bottle stops').fill('24');
+	await expect(page.getByLabel('Station figures')).toContainText('Duration');
+	await panel.getByRole('button', { name: 'Save' }).click();
+	await expect(page.getByRole('status')).toHaveText('Saved CTD-03.');
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(page.getByRole('status')).toHaveText('Undone: change station CTD-03.');
 
 	// A position that cannot be read is named, not guessed.
 	await place.getByLabel('Positions').fill('95 12.5 N 146 W');
@@ -154,6 +186,15 @@ test('the chief scientist generates lines over a survey area and accepts them', 
 	await bulk.getByRole('button', { name: 'Apply to chosen' }).click();
 	await expect(page.getByRole('status')).toHaveText('Changed 2 lines.');
 	await shot(page, 'chart-line-book');
+
+	// Leave the demo plan as it was for the other tests.
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(page.getByRole('status')).toHaveText('Undone: bulk edit of 2 lines.');
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(page.getByRole('status')).toHaveText(
+		`Undone: add survey area East box and ${count} lines.`
+	);
+	await expect(page.getByRole('table', { name: 'Line book' })).not.toContainText('East box');
 });
 
 test('a participant sees the plan but cannot edit it', async ({ page }) => {

@@ -80,6 +80,9 @@ describe('describeEdit', () => {
 	it('says what an undo would take back', () => {
 		expect(describeEdit({ op: 'create', features: [station] })).toBe('add station CTD-01');
 		expect(describeEdit({ op: 'create', features: [line, line] })).toBe('add 2 lines');
+		expect(describeEdit({ op: 'create', features: [station, line] })).toBe(
+			'add station CTD-01 and 1 line'
+		);
 		expect(describeEdit({ op: 'delete', feature: line })).toBe('delete line N-X1');
 		expect(describeEdit({ op: 'bulk', before: [line] })).toBe('bulk edit of 1 line');
 	});

@@ -106,9 +106,16 @@ export function inverseRequests(cruiseId: string, edit: PlanEdit): ApiRequest[] 
 export function describeEdit(edit: PlanEdit): string {
 	switch (edit.op) {
 		case 'create': {
-			const [f] = edit.features;
-			if (edit.features.length > 1) return `add ${edit.features.length} lines`;
-			return `add ${KIND_WORDS[f.properties.kind]} ${f.properties.name}`;
+			if (edit.features.length === 1) {
+				const [f] = edit.features;
+				return `add ${KIND_WORDS[f.properties.kind]} ${f.properties.name}`;
+			}
+			const lines = edit.features.filter((f) => f.properties.kind === 'line').length;
+			const parts = edit.features
+				.filter((f) => f.properties.kind !== 'line')
+				.map((f) => `${KIND_WORDS[f.properties.kind]} ${f.properties.name}`);
+			if (lines) parts.push(`${lines} line${lines === 1 ? '' : 's'}`);
+			return `add ${parts.join(' and ')}`;
 		}
 		case 'update':
 			return `change ${KIND_WORDS[edit.after.properties.kind]} ${edit.after.properties.name}`;
