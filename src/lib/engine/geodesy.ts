@@ -5,15 +5,9 @@
  * Geodesics come from GeographicLib (Karney 2013, J. Geodesy 87, 43) through the npm package
  * geographiclib-geodesic. Positions are GeoJSON order [lon, lat] in degrees; distances in metres.
  */
-import * as geodesicModule from 'geographiclib-geodesic';
+import { Geodesic } from './geographiclib';
 
-type GeodesicLib = typeof geodesicModule;
-// The package is a UMD bundle: Node's ESM loader exposes it only as a default export while
-// bundlers may also expose named exports, so take whichever object holds the API.
-const lib: GeodesicLib =
-	(geodesicModule as unknown as { default?: GeodesicLib }).default ?? geodesicModule;
-
-const G = lib.Geodesic;
+const G = Geodesic;
 const geod = G.WGS84;
 type GeodesicLine = ReturnType<typeof geod.InverseLine>;
 
@@ -36,8 +30,9 @@ const LATLON_AZI = G.LATITUDE | G.LONGITUDE | G.AZIMUTH;
 const DIST_AZI = G.DISTANCE | G.AZIMUTH;
 const LINE_CAPS = G.LATITUDE | G.LONGITUDE | G.AZIMUTH | G.DISTANCE_IN | G.DISTANCE;
 
-/** Longitude wrapped into [−180, 180). */
+/** Longitude wrapped into [−180, 180): 180 becomes −180, 190 becomes −170. */
 export function normalizeLon(lon: number): number {
+	if (!Number.isFinite(lon)) return lon;
 	if (lon >= -180 && lon < 180) return lon;
 	const r = (((lon + 180) % 360) + 360) % 360;
 	return r - 180;

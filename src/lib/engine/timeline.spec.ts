@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
 	buildTimeline,
-	hoursAt,
 	operatingDays,
 	shortestTransitOrder,
 	suggestCuts,
@@ -11,17 +10,6 @@ import {
 } from './timeline';
 
 const utc = (s: string) => Date.parse(s);
-
-describe('time at speed', () => {
-	it('a 200 km line at 10 kn takes 10.80 h', () => {
-		// [derived] SCIENCE.md §6: 200 000 m / (10 × 1852 m/h) = 10.799 h
-		expect(hoursAt(200_000, 10)).toBeCloseTo(10.799, 3);
-		expect(hoursAt(200_000, 10).toFixed(2)).toBe('10.80');
-	});
-	it('refuses a speed of zero', () => {
-		expect(() => hoursAt(1000, 0)).toThrow(RangeError);
-	});
-});
 
 describe('operating days (any calendar day or part of one away from port)', () => {
 	// [trade] SCIENCE.md §6: billing counts every calendar day touched.

@@ -7,8 +7,7 @@
  * Times are UTC epoch milliseconds; distances metres inside, nautical miles at the edge.
  */
 import { distanceM, lineLengthM, type LonLat } from './geodesy';
-
-export const M_PER_NM = 1852; // exact, by definition
+import { hoursAt, kmToNm } from './time';
 const H_MS = 3_600_000;
 const DAY_MS = 86_400_000;
 
@@ -104,12 +103,6 @@ export interface Timeline {
 	cuts: CutSuggestion[];
 }
 
-/** Time (h) to run `distanceM` at `speedKn`. 1 kn = 1852 m/h exactly. */
-export function hoursAt(distM: number, speedKn: number): number {
-	if (!(speedKn > 0)) throw new RangeError('speed must be above 0 kn');
-	return distM / (speedKn * M_PER_NM);
-}
-
 /**
  * Operating days: every calendar day, whole or part, between leaving and returning (SCIENCE.md §6,
  * trade practice). Days are counted in the given clock (minutes from UTC; 0 = UTC). An arrival at
@@ -168,8 +161,8 @@ export function buildTimeline(input: TimelineInput): Timeline {
 		push({
 			kind: 'transit',
 			name,
-			durationH: hoursAt(d, input.transitSpeedKn),
-			distanceNm: d / M_PER_NM,
+			durationH: hoursAt(d / 1000, input.transitSpeedKn),
+			distanceNm: kmToNm(d / 1000),
 			from: here,
 			to
 		});
@@ -193,8 +186,8 @@ export function buildTimeline(input: TimelineInput): Timeline {
 				kind: 'line',
 				name: item.name,
 				refId: item.id,
-				durationH: hoursAt(len, item.surveySpeedKn),
-				distanceNm: len / M_PER_NM,
+				durationH: hoursAt(len / 1000, item.surveySpeedKn),
+				distanceNm: kmToNm(len / 1000),
 				from: a,
 				to: b
 			});

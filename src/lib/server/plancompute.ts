@@ -3,6 +3,7 @@
 import type { DepthModelId, PredictedDepth } from '$lib/engine/depth';
 import { lineLengthM, sampleLine } from '$lib/engine/geodesy';
 import { RidgeDepthModel } from '$lib/engine/profile';
+import { hoursAt } from '$lib/engine/time';
 import { stationHours, type StationKind, type StationSettings } from '$lib/engine/stations';
 import type { Cruise, RidgeSegment, Station, SurveyLine, Vessel } from './db/schema';
 
@@ -68,7 +69,7 @@ export function computeLine(
 	s: PlanSettings
 ): LineValues {
 	const lengthM = lineLengthM(line.coords);
-	const durationH = lengthM / (line.surveySpeedKn * 1852);
+	const durationH = hoursAt(lengthM / 1000, line.surveySpeedKn);
 	if (lengthM === 0) return { lengthKm: 0, durationH: 0, minDepthM: null, maxDepthM: null };
 	const samples = sampleLine(line.coords, Math.max(1000, lengthM / MAX_SAMPLES));
 	let min = Infinity;

@@ -7,6 +7,11 @@
  * degrees alone, and formatting keeps the hemisphere of −0.5 (0°30.000′S).
  */
 
+import { normalizeLon } from '../geodesy';
+
+/** Longitude into [−180, 180), one definition for the whole engine. */
+export { normalizeLon };
+
 export type Axis = 'lat' | 'lon';
 
 export interface CoordinateError {
@@ -29,14 +34,6 @@ const FIELD: Record<Axis, CoordinateError['field']> = { lat: 'latitude', lon: 'l
 const LIMIT: Record<Axis, number> = { lat: 90, lon: 180 };
 /** NMEA 0183 writes latitude as ddmm.mmm and longitude as dddmm.mmm, zero-padded. */
 const NMEA_DEGREE_DIGITS: Record<Axis, number> = { lat: 2, lon: 3 };
-
-/** Longitude into [−180, 180): 180 becomes −180, 190 becomes −170. */
-export function normalizeLon(lon: number): number {
-	if (!Number.isFinite(lon)) return lon;
-	if (lon >= -180 && lon < 180) return lon;
-	const r = (((lon + 180) % 360) + 360) % 360;
-	return r - 180;
-}
 
 function negative(value: number): boolean {
 	return value < 0 || Object.is(value, -0);
