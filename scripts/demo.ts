@@ -9,6 +9,7 @@ import * as clearances from '../src/lib/server/clearances';
 import * as deadlines from '../src/lib/server/deadlines';
 import { newId } from '../src/lib/server/ids';
 import * as timelines from '../src/lib/server/timeline';
+import { operatingDays } from '../src/lib/engine/timeline';
 
 export const DEMO_PASSWORD = 'ridge-crest-2027';
 
@@ -151,7 +152,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				returnPortId: ardent,
 				departureAt: new Date(sail),
 				returnAt: new Date(home),
-				allocatedDays: 28,
+				allocatedDays: 21,
 				weatherMarginPct: 12,
 				depthModel: 'stein-stein-1992',
 				createdById: ids['chief@example.org']
@@ -595,6 +596,15 @@ function seedSchedule(db: Db, sail: number) {
 			.set({ startAt: new Date(l.start), endAt: new Date(l.end) })
 			.where(and(eq(t.leg.cruiseId, cruiseId), eq(t.leg.seq, l.seq)))
 			.run();
+	// Leg 1's ship-time invoice is billed on the operating days the timeline gives it.
+	const leg1Days = operatingDays(legs[0].start, legs[0].end);
+	db.update(t.invoice)
+		.set({
+			description: `Ship time, leg 1 — ${leg1Days} operating days at EUR 38,500`,
+			amountMinor: leg1Days * 3_850_000
+		})
+		.where(eq(t.invoice.number, 'MT27-03-002'))
+		.run();
 
 	// The western flank work lies in Xandera's waters (invented boundary).
 	const xandera = db.select().from(t.clearance).where(eq(t.clearance.cruiseId, cruiseId)).get()!;

@@ -40,7 +40,7 @@ interface ApiEvent {
 }
 
 describe('GET /api/v1/cruises/{id}/timeline', () => {
-	it('gives events in time order with UTC times and totals within the 28 allocated days', async () => {
+	it('gives events in time order with UTC times and totals within the 21 allocated days', async () => {
 		const res = await get(`/api/v1/cruises/${cruiseId}/timeline`, participant);
 		expect(res.status).toBe(200);
 		const body = await res.json();
@@ -60,9 +60,9 @@ describe('GET /api/v1/cruises/{id}/timeline', () => {
 			expect(e.distanceNm).toBeGreaterThan(0);
 
 		const { totals } = body;
-		expect(totals.allocatedDays).toBe(28);
+		expect(totals.allocatedDays).toBe(21);
 		expect(totals.operatingDays).toBeGreaterThan(0);
-		expect(totals.operatingDays).toBeLessThanOrEqual(28);
+		expect(totals.operatingDays).toBeLessThanOrEqual(21);
 		expect(totals.marginDays).toBeGreaterThan(0);
 		// Ship-time cost = operating days × the RV Marram Tern's day rate (EUR 38,500).
 		expect(totals.cost).toEqual({
