@@ -1,7 +1,8 @@
 import { join, resolve } from 'node:path';
 
 export const E2E_PORT = Number(process.env.E2E_PORT || 4319);
-export const E2E_DIR = resolve('.e2e-data');
+// One folder per port, so parallel runs (other checkouts, other ports) never share a database.
+export const E2E_DIR = resolve('.e2e-data', String(E2E_PORT));
 export const E2E_MAIL_DIR = join(E2E_DIR, 'mail');
 export const E2E_DB = join(E2E_DIR, 'test.db');
 export const SCREENSHOTS = resolve('test-results/screens');
