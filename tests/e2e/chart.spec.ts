@@ -130,6 +130,13 @@ test('a station typed in degrees and decimal minutes is shown on the chart, save
 	await expect(page.getByRole('status')).toHaveText('Undone: add station DR-04.');
 	await expect(page.getByRole('table', { name: 'Line book' })).not.toContainText('DR-04');
 
+	// A station placed by clicking on the chart.
+	await page.getByRole('button', { name: 'Station', exact: true }).click();
+	await clickChart(page, [[0.1, 0.1]]);
+	await expect(panel.getByRole('heading', { name: 'New station' })).toBeVisible();
+	await expect(page.getByLabel('Station figures')).toContainText('Predicted depth');
+	await panel.getByRole('button', { name: 'Cancel' }).click();
+
 	// A saved station is changed through its panel, and the change undone.
 	await page
 		.getByRole('table', { name: 'Line book' })
