@@ -143,3 +143,36 @@ export function stationHours(kind: StationKind, depthM: number, s: StationSettin
 			return vehicleDiveHours(s.vehicle ?? 'crewed', s.diveBlockH);
 	}
 }
+
+const numbers = (params: Readonly<Record<string, number | string | null>>) =>
+	Object.fromEntries(
+		Object.entries(params).filter((e): e is [string, number] => typeof e[1] === 'number')
+	);
+
+/**
+ * A station's own parameters (as stored with it: numbers by option name, `vehicle` for dives) on
+ * top of the vessel's winch speed, as `stationHours` takes them. Browser and server share this.
+ */
+export function stationSettings(
+	kind: StationKind,
+	params: Readonly<Record<string, number | string | null>>,
+	winchSpeedMPerMin: number
+): StationSettings {
+	const own = numbers(params);
+	const vehicle = params.vehicle;
+	switch (kind) {
+		case 'ctd':
+			return { winchSpeedMPerMin, ctd: own, ctdOffBottomM: own.offBottomM };
+		case 'dredge':
+			return { winchSpeedMPerMin, dredge: own };
+		case 'core':
+			return { winchSpeedMPerMin, core: own };
+		case 'dive':
+			return {
+				winchSpeedMPerMin,
+				diveBlockH: own.blockH,
+				vehicle:
+					vehicle === 'rov' || vehicle === 'auv' || vehicle === 'crewed' ? vehicle : undefined
+			};
+	}
+}

@@ -4,7 +4,7 @@ import type { DepthModelId, PredictedDepth } from '$lib/engine/depth';
 import { lineLengthM, sampleLine } from '$lib/engine/geodesy';
 import { RidgeDepthModel } from '$lib/engine/profile';
 import { hoursAt } from '$lib/engine/time';
-import { stationHours, type StationKind, type StationSettings } from '$lib/engine/stations';
+import { stationHours, stationSettings } from '$lib/engine/stations';
 import type { Cruise, RidgeSegment, Station, SurveyLine, Vessel } from './db/schema';
 
 /** Vessel settings used when a cruise has no vessel yet [trade]. */
@@ -86,35 +86,6 @@ export function computeLine(
 export interface StationValues {
 	depthM: number | null;
 	durationH: number | null;
-}
-
-const numbers = (params: Record<string, number | string>) =>
-	Object.fromEntries(Object.entries(params).filter(([, v]) => typeof v === 'number')) as Record<
-		string,
-		number
-	>;
-
-/** A station's own settings (its `params`) on top of the vessel's winch speed. */
-export function stationSettings(
-	kind: StationKind,
-	params: Record<string, number | string>,
-	winchSpeedMPerMin: number
-): StationSettings {
-	const own = numbers(params);
-	const vehicle = params.vehicle;
-	return {
-		winchSpeedMPerMin,
-		...(kind === 'ctd' ? { ctd: own, ctdOffBottomM: own.offBottomM } : {}),
-		...(kind === 'dredge' ? { dredge: own } : {}),
-		...(kind === 'core' ? { core: own } : {}),
-		...(kind === 'dive'
-			? {
-					diveBlockH: own.blockH,
-					vehicle:
-						vehicle === 'rov' || vehicle === 'auv' || vehicle === 'crewed' ? vehicle : undefined
-				}
-			: {})
-	};
 }
 
 export function computeStation(

@@ -16,6 +16,7 @@ import {
 	PolylineIndex,
 	RidgeDepthModel,
 	stationHours,
+	stationSettings,
 	thuMaxM,
 	tvuMaxM,
 	type CoverageGap,
@@ -23,7 +24,6 @@ import {
 	type DepthProfileSample,
 	type ProfileStripe,
 	type RidgeInput,
-	type StationSettings,
 	type SurveyPlan
 } from '$lib/engine';
 import type { IhoOrder, StationKind } from '$lib/engine/formats/types';
@@ -233,35 +233,7 @@ export function swathFootprint(samples: readonly DepthProfileSample[]): Polygon 
 
 // ------------------------------------------------------------------------------ stations
 
-const numbers = (params: Record<string, number | string | null>) =>
-	Object.fromEntries(
-		Object.entries(params).filter((e): e is [string, number] => typeof e[1] === 'number')
-	);
-
-/** A station's own parameters on top of the vessel's winch speed, as the engine takes them. */
-export function stationSettings(
-	kind: StationKind,
-	params: Record<string, number | string | null>,
-	winchSpeedMPerMin: number
-): StationSettings {
-	const own = numbers(params);
-	const vehicle = params.vehicle;
-	switch (kind) {
-		case 'ctd':
-			return { winchSpeedMPerMin, ctd: own, ctdOffBottomM: own.offBottomM };
-		case 'dredge':
-			return { winchSpeedMPerMin, dredge: own };
-		case 'core':
-			return { winchSpeedMPerMin, core: own };
-		case 'dive':
-			return {
-				winchSpeedMPerMin,
-				diveBlockH: own.blockH,
-				vehicle:
-					vehicle === 'rov' || vehicle === 'auv' || vehicle === 'crewed' ? vehicle : undefined
-			};
-	}
-}
+export { stationSettings };
 
 export interface StationFeedback {
 	depthM: number | null;
