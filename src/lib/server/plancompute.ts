@@ -1,5 +1,6 @@
 // Server-side computation of a plan's derived values with the shared engine: predicted depths along
 // lines and at stations, line lengths and times, station durations. Authoritative for saved plans.
+import { DEFAULT_VESSEL } from '$lib/defaults';
 import type { DepthModelId, PredictedDepth } from '$lib/engine/depth';
 import { lineLengthM, sampleLine } from '$lib/engine/geodesy';
 import { RidgeDepthModel } from '$lib/engine/profile';
@@ -7,18 +8,11 @@ import { hoursAt } from '$lib/engine/time';
 import { stationHours, stationSettings } from '$lib/engine/stations';
 import type { Cruise, RidgeSegment, Station, SurveyLine, Vessel } from './db/schema';
 
-/** Vessel settings used when a cruise has no vessel yet [trade]. */
-export const DEFAULT_VESSEL = {
-	swathAngleDeg: 130,
-	swathDepthFactor: 4,
-	surveySpeedKn: 8,
-	transitSpeedKn: 10,
-	winchSpeedMPerMin: 60
-};
+export { DEFAULT_VESSEL };
 
 export interface PlanSettings {
 	model: DepthModelId;
-	vessel: typeof DEFAULT_VESSEL;
+	vessel: { [K in keyof typeof DEFAULT_VESSEL]: number };
 	/** Predicted depth (with band) and age at a position; null when the cruise has no ridge. */
 	depthAt: (lon: number, lat: number) => (PredictedDepth & { ageMa: number }) | null;
 }

@@ -27,6 +27,7 @@ import {
 	type SurveyPlan
 } from '$lib/engine';
 import type { IhoOrder, StationKind } from '$lib/engine/formats/types';
+import { DEFAULT_VESSEL } from '$lib/defaults';
 import type { SettingsForm } from './form';
 import type { ViewBounds } from './graticule';
 import { depthFeatures, gridRange, isobathLevels, type GridSpec } from './isobaths';
@@ -34,13 +35,7 @@ import type { Bounds } from './shape';
 import type { Draft, PlanFeature, PlanVessel } from './types';
 
 /** Used when the cruise has no vessel yet; the server falls back to the same numbers. */
-export const FALLBACK_VESSEL: PlanVessel = {
-	swathAngleDeg: 130,
-	swathDepthFactor: 4,
-	surveySpeedKn: 8,
-	transitSpeedKn: 10,
-	winchSpeedMPerMin: 60
-};
+export const FALLBACK_VESSEL: PlanVessel = { ...DEFAULT_VESSEL };
 
 const DEPTH_MODELS: DepthModelId[] = ['parsons-sclater-1977', 'stein-stein-1992', 'half-space'];
 
