@@ -103,6 +103,37 @@ describe('plan API', () => {
 		expect(db.select().from(surveyLine).where(eq(surveyLine.id, f.id)).get()).toBeUndefined();
 	});
 
+	it('a generated line remembers its survey area; an area of another cruise is refused', async () => {
+		const fc = await (await call(`/api/v1/cruises/${cruiseId}/plan`, chief)).json();
+		const area = fc.features.find(
+			(f: { properties: { kind: string } }) => f.properties.kind === 'area'
+		);
+		const line = (areaId: string) =>
+			call(`/api/v1/cruises/${cruiseId}/plan/features`, chief, {
+				method: 'POST',
+				body: JSON.stringify({
+					kind: 'line',
+					name: 'BOX-01',
+					geometry: {
+						type: 'LineString',
+						coordinates: [
+							[-146, -30.4],
+							[-145.4, -30.4]
+						]
+					},
+					properties: { areaId }
+				})
+			});
+		const ok = await line(area.id);
+		expect(ok.status).toBe(201);
+		const made = await ok.json();
+		expect(made.properties.areaId).toBe(area.id);
+		const bad = await line('not-an-area');
+		expect(bad.status).toBe(422);
+		expect((await bad.json()).error.details[0].field).toBe('properties.areaId');
+		await call(`/api/v1/cruises/${cruiseId}/plan/features/${made.id}`, chief, { method: 'DELETE' });
+	});
+
 	it('a participant cannot edit the plan', async () => {
 		const before = db.select().from(station).all().length;
 		const res = await call(`/api/v1/cruises/${cruiseId}/plan/features`, participant, {

@@ -37,7 +37,9 @@ export const lineProps = z.object({
 	purpose: z.enum(['multibeam', 'magnetics', 'gravity', 'seismic']).default('multibeam'),
 	surveySpeedKn: z.number().positive('the survey speed must be above 0').max(20).default(8),
 	overlapPct: z.number().min(0).max(90).default(30),
-	ihoOrder: z.enum(['exclusive', 'special', '1a', '1b', '2']).default('2')
+	ihoOrder: z.enum(['exclusive', 'special', '1a', '1b', '2']).default('2'),
+	/** The survey area a generated line covers, if any. */
+	areaId: z.string().min(1).nullable().default(null)
 });
 
 export const areaProps = z.object({

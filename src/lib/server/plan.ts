@@ -254,7 +254,21 @@ function touch(cruiseId: string) {
 	db.update(cruise).set({ updatedAt: new Date() }).where(eq(cruise.id, cruiseId)).run();
 }
 
+function assertArea(cruiseId: string, areaId: string | null | undefined) {
+	if (!areaId) return;
+	const found = db
+		.select({ id: surveyArea.id })
+		.from(surveyArea)
+		.where(and(eq(surveyArea.id, areaId), eq(surveyArea.cruiseId, cruiseId)))
+		.get();
+	if (!found)
+		throw new ApiError(422, 'properties.areaId: no such survey area on this cruise.', 'invalid', [
+			{ field: 'properties.areaId', message: 'no such survey area on this cruise' }
+		]);
+}
+
 export function create(actorId: string, cruiseId: string, f: NewFeature): Feature {
+	if (f.kind === 'line') assertArea(cruiseId, f.properties.areaId);
 	const id = newId();
 	db.transaction((tx) => {
 		switch (f.kind) {
@@ -366,6 +380,7 @@ export function update(
 					? parseOr(lineString, patch.geometry, 'geometry')
 					: undefined;
 				const p = parseOr(lineProps, props, 'properties');
+				assertArea(cruiseId, p.areaId);
 				tx.update(surveyLine)
 					.set({ name, ...p, ...(geometry ? { coords: geometry.coordinates } : {}) })
 					.where(eq(surveyLine.id, id))
