@@ -231,3 +231,23 @@ test('a participant sees the plan but cannot edit it', async ({ page }) => {
 	});
 	expect(res.status()).toBe(403);
 });
+
+test('a line typed across the antimeridian stays one short line', async ({ page }) => {
+	await openChart(page, DEMO.chief);
+	const place = page.getByRole('form', { name: 'Place by coordinates' });
+	await place.getByLabel('Kind').selectOption('line');
+	await place.getByLabel('Positions').fill('30 00.000 S 179 30.000 E\n30 00.000 S 179 30.000 W');
+	await place.getByRole('button', { name: 'Show on chart' }).click();
+	// [derived] one degree of longitude at 30°S on WGS84 is about 96.5 km (52.1 nm): the short way.
+	const figures = page.getByLabel('Line figures');
+	await expect(figures).toContainText(/5[12]\.\d nm · 96\.\d km/);
+	await shot(page, 'chart-antimeridian');
+	const panel = page.getByRole('form', { name: 'New or changed feature' });
+	await panel.getByLabel('Name').fill('DATELINE');
+	await panel.getByRole('button', { name: 'Save' }).click();
+	await expect(page.getByRole('status')).toHaveText('Saved DATELINE.');
+	const book = page.getByRole('table', { name: 'Line book' });
+	await expect(book.getByRole('row', { name: /DATELINE/ })).toContainText('96.');
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(book).not.toContainText('DATELINE');
+});
