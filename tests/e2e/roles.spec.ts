@@ -27,6 +27,9 @@ test('the chief scientist runs the demo cruise: settings and invitations', async
 	await expect(page.getByRole('link', { name: 'Vessels' })).toHaveCount(0);
 	await list.getByRole('link').first().click();
 	await expect(page.getByRole('heading', { name: /Crustal thickness/ })).toBeVisible();
+	// The overview sums up ship time from the same timeline the Timeline tab shows.
+	await expect(page.getByTestId('glance')).toContainText(/\d+ of 21 allocated/);
+	await expect(page.getByTestId('glance')).toContainText('€');
 	await shot(page, 'chief-cruise');
 
 	await page.getByRole('link', { name: 'Settings' }).click();
