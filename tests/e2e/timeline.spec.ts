@@ -5,7 +5,7 @@ import { DEMO, shot, signInAs } from './fixtures';
 async function openTimeline(page: Page): Promise<string> {
 	await signInAs(page, DEMO.chief);
 	await page.getByRole('list', { name: 'Cruises' }).getByRole('link').first().click();
-	await page.getByRole('link', { name: 'Timeline' }).click();
+	await page.getByRole('link', { name: 'Timeline', exact: true }).click();
 	await expect(page.getByRole('heading', { name: 'Ship time and budget' })).toBeVisible();
 	return page.url().match(/cruises\/([^/]+)\/timeline/)![1];
 }
