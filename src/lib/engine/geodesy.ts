@@ -101,6 +101,17 @@ export interface LineSamples {
 	distanceM: Float64Array;
 }
 
+/** A line that would give more samples than allowed; thrown before anything is allocated. */
+export class SampleCountError extends RangeError {
+	constructor(
+		readonly count: number,
+		readonly lengthM: number
+	) {
+		super(`${count} samples`);
+		this.name = 'SampleCountError';
+	}
+}
+
 /** Samples closer than this to the end are merged with it (float noise, not a real sample). */
 const END_MERGE_M = 1e-3;
 
@@ -108,7 +119,12 @@ const END_MERGE_M = 1e-3;
  * Points along the geodesics through a line's vertices: at the start, every spacingM along the
  * line, and at the end (the last regular sample is dropped if it falls within 1 mm of the end).
  */
-export function sampleLine(coords: readonly LonLat[], spacingM: number): LineSamples {
+export function sampleLine(
+	coords: readonly LonLat[],
+	spacingM: number,
+	/** Refuse (RangeError) before allocating when the line would give more samples than this. */
+	maxCount = Infinity
+): LineSamples {
 	if (!(spacingM > 0) || !Number.isFinite(spacingM)) {
 		throw new RangeError('spacing must be a positive finite number');
 	}
@@ -126,6 +142,7 @@ export function sampleLine(coords: readonly LonLat[], spacingM: number): LineSam
 	}
 	const regular = lengthM > END_MERGE_M ? Math.ceil((lengthM - END_MERGE_M) / spacingM) : 1;
 	const count = lengthM > 0 ? regular + 1 : 1;
+	if (count > maxCount) throw new SampleCountError(count, lengthM);
 	const lon = new Float64Array(count);
 	const lat = new Float64Array(count);
 	const dist = new Float64Array(count);

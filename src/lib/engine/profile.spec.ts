@@ -201,7 +201,7 @@ describe('depthProfile (POST /api/v1/depth-profile)', () => {
 					}
 				})
 			)
-		).toBe('ridge.axis');
+		).toBe('ridge.axis.coordinates.1');
 		expect(
 			fieldOf(() => depthProfile({ ...base, model: 'plate' as unknown as 'half-space' }))
 		).toBe('model');

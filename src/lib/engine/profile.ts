@@ -10,7 +10,8 @@ import {
 	type DepthModelId,
 	type PredictedDepth
 } from './depth';
-import { normalizeLon, sampleLine, type LonLat } from './geodesy';
+import { normalizeLon, sampleLine, SampleCountError, type LonLat } from './geodesy';
+import { axisProblem, SIZES } from './limits';
 import {
 	MAX_POTENTIAL_TEMPERATURE_C,
 	airyShiftFromPotentialTemperatureM,
@@ -28,8 +29,8 @@ export class EngineInputError extends Error {
 	}
 }
 
-/** Most samples one profile may return. */
-export const MAX_PROFILE_SAMPLES = 200_000;
+/** Most samples one profile may return (the shared limit). */
+export const MAX_PROFILE_SAMPLES = SIZES.profileSamples;
 export const DEFAULT_SPACING_KM = 1;
 /** Ages are capped here (older than any ocean floor), e.g. on a flank that does not spread. */
 export const MAX_PLATE_AGE_MA = 300;
@@ -79,6 +80,11 @@ function checkPositions(field: string, coords: readonly LonLat[]): void {
 
 function checkRidge(field: string, r: RidgeInput): void {
 	checkPositions(`${field}.axis.coordinates`, r.axis);
+	const shape = axisProblem(r.axis);
+	if (shape) {
+		const at = shape.vertex === undefined ? '' : `.${shape.vertex}`;
+		throw new EngineInputError(`${field}.axis.coordinates${at}`, shape.message);
+	}
 	if (!(r.fullRateMmYr > 0) || !Number.isFinite(r.fullRateMmYr)) {
 		throw new EngineInputError(`${field}.fullRateMmYr`, 'full spreading rate must be > 0 mm/yr');
 	}
@@ -231,16 +237,20 @@ export function depthProfileForRidges(
 	}
 	const k = options.widthFactor ?? DEFAULT_WIDTH_FACTOR;
 	const depth = new RidgeDepthModel(ridges, options);
-	const s = sampleLine(line, spacingKm * 1000);
-	const lengthKm = s.lengthM / 1000;
-	if (s.count > MAX_PROFILE_SAMPLES) {
-		const min = lengthKm / (MAX_PROFILE_SAMPLES - 1);
+	let s: ReturnType<typeof sampleLine>;
+	try {
+		s = sampleLine(line, spacingKm * 1000, MAX_PROFILE_SAMPLES);
+	} catch (e) {
+		if (!(e instanceof SampleCountError)) throw e;
+		const km = e.lengthM / 1000;
+		const min = km / (MAX_PROFILE_SAMPLES - 1);
 		throw new EngineInputError(
 			'spacingKm',
-			`a ${lengthKm.toFixed(1)} km line every ${spacingKm} km gives ${s.count} samples; ` +
+			`a ${km.toFixed(1)} km line every ${spacingKm} km gives ${e.count} samples; ` +
 				`at most ${MAX_PROFILE_SAMPLES} (use spacingKm ≥ ${min.toPrecision(3)})`
 		);
 	}
+	const lengthKm = s.lengthM / 1000;
 	const samples: DepthProfileSample[] = [];
 	const d = depth.alongLine(s.lon, s.lat, s.distanceM);
 	for (let i = 0; i < s.count; i++) {

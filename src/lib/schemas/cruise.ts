@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { SIZES } from '$lib/engine/limits';
+import { bounded } from './limits';
 
 const DEPTH_MODELS = ['stein-stein-1992', 'parsons-sclater-1977', 'half-space'] as const;
 const STATUSES = ['draft', 'planned', 'published', 'at_sea', 'completed'] as const;
@@ -7,8 +9,8 @@ const STATUSES = ['draft', 'planned', 'published', 'at_sea', 'completed'] as con
 const utcDateTime = z
 	.string()
 	.trim()
-	.refine((s) => s === '' || !Number.isNaN(Date.parse(s + (s.length === 16 ? ':00Z' : ''))), {
-		message: 'Enter a date and time, e.g. 2027-03-01T08:00 (UTC).'
+	.refine((s) => s === '' || validInstant(s), {
+		message: 'Enter a date and time between 1950 and 2200, e.g. 2027-03-01T08:00 (UTC).'
 	})
 	.default('');
 
@@ -27,24 +29,32 @@ export const cruiseSchema = z
 		returnPortId: z.string().default(''),
 		departureAt: utcDateTime,
 		returnAt: utcDateTime,
-		allocatedDays: z
-			.number({ message: 'Enter a number of days.' })
-			.min(0, 'Days cannot be negative.')
-			.max(400, 'More than 400 days is not a cruise.')
-			.default(0),
-		weatherMarginPct: z
-			.number({ message: 'Enter a percentage.' })
-			.min(0, 'The margin cannot be negative.')
-			.max(100, 'The margin is at most 100 %.')
-			.default(10),
+		allocatedDays: bounded('allocatedDays', 'Allocated days').default(0),
+		weatherMarginPct: bounded('weatherMarginPct', 'The weather margin').default(10),
 		depthModel: z.enum(DEPTH_MODELS).default('stein-stein-1992')
 	})
 	.refine((c) => !c.departureAt || !c.returnAt || toUtc(c.returnAt)! > toUtc(c.departureAt)!, {
 		message: 'The return must come after the departure.',
 		path: ['returnAt']
-	});
+	})
+	.refine(
+		(c) =>
+			!c.departureAt ||
+			!c.returnAt ||
+			toUtc(c.returnAt)!.getTime() - toUtc(c.departureAt)!.getTime() <=
+				SIZES.timelineDays * 86_400_000,
+		{ message: `A cruise may last at most ${SIZES.timelineDays} days.`, path: ['returnAt'] }
+	);
 
 export type CruiseInput = z.infer<typeof cruiseSchema>;
+
+/** A parseable instant within 1950–2200 (a planning tool has no business outside it). */
+export function validInstant(s: string): boolean {
+	const t = toUtc(s)?.getTime();
+	return (
+		t !== undefined && Number.isFinite(t) && t >= Date.UTC(1950, 0, 1) && t < Date.UTC(2200, 0, 1)
+	);
+}
 
 export function toUtc(s: string): Date | null {
 	if (!s) return null;

@@ -100,7 +100,8 @@ describe('depth-profile request schema', () => {
 	});
 
 	it('leaves the sample limit to the engine, which names spacingKm', () => {
-		const body = depthProfileRequestSchema.parse({ ...valid, spacingKm: 0.001 });
+		// 2° of longitude at 10° N is ≈ 219 km: every 10 m (the smallest spacing) is > 20 000 samples
+		const body = depthProfileRequestSchema.parse({ ...valid, spacingKm: 0.01 });
 		try {
 			depthProfile(body);
 			expect.unreachable();

@@ -1,10 +1,12 @@
 // Request body of POST /api/v1/depth-profile (DESIGN.md §6). Positions are GeoJSON [lon, lat] in
 // WGS84 degrees; longitudes must lie within ±180 (the engine normalises them to [−180, 180) in its
-// answers). The sample-count limit (≤ 200 000) needs the line's geodesic length, so the engine
+// answers). The sample-count limit (SIZES.profileSamples) needs the line's geodesic length, so the engine
 // checks it and throws EngineInputError { field: 'spacingKm' }.
 import { z } from 'zod';
 import { DEPTH_MODEL_IDS, type DepthModelId } from '$lib/engine/depth';
+import { axisProblem, SIZES } from '$lib/engine/limits';
 import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
+import { bounded } from './limits';
 
 const coordinate = z.number({ error: 'must be a finite number' });
 
@@ -37,13 +39,25 @@ export const lineStringSchema = z.object({
 });
 
 export const depthProfileRequestSchema = z.object({
-	line: lineStringSchema,
+	line: lineStringSchema.extend({
+		coordinates: lineStringSchema.shape.coordinates.max(
+			SIZES.lineVertices,
+			`a line may have at most ${SIZES.lineVertices} positions`
+		)
+	}),
 	ridge: z.object({
-		axis: lineStringSchema,
-		fullRateMmYr: z
-			.number({ error: 'must be a finite number' })
-			.gt(0, 'the full spreading rate must be above 0 mm/yr')
-			.max(300, 'the full spreading rate must be at most 300 mm/yr'),
+		axis: lineStringSchema.extend({
+			coordinates: lineStringSchema.shape.coordinates.superRefine((coords, ctx) => {
+				const p = axisProblem(coords);
+				if (p)
+					ctx.addIssue({
+						code: 'custom',
+						message: p.message,
+						path: p.vertex === undefined ? [] : [p.vertex]
+					});
+			})
+		}),
+		fullRateMmYr: bounded('fullRateMmYr', 'the full spreading rate'),
 		asymmetry: z
 			.number({ error: 'must be a finite number' })
 			.min(0, 'asymmetry is the left flank share, 0..1')
@@ -57,26 +71,15 @@ export const depthProfileRequestSchema = z.object({
 				`potential temperature must be at most ${MAX_POTENTIAL_TEMPERATURE_C} °C (melting models' range)`
 			)
 			.optional(),
-		axialDepthM: z
-			.number({ error: 'must be a finite number' })
-			.min(0, 'depth is positive down, in metres')
-			.max(11_000, 'the axial depth must be at most 11 000 m')
-			.optional()
+		axialDepthM: bounded('axialDepthM', 'the axial depth (positive down)').optional()
 	}),
 	model: z
 		.enum(DEPTH_MODEL_IDS as [DepthModelId, ...DepthModelId[]], {
 			error: `model must be one of ${DEPTH_MODEL_IDS.join(', ')}`
 		})
 		.optional(),
-	spacingKm: z
-		.number({ error: 'must be a finite number' })
-		.gt(0, 'the spacing must be above 0 km')
-		.optional(),
-	swathAngleDeg: z
-		.number({ error: 'must be a finite number' })
-		.gt(0, 'the swath angle must be above 0°')
-		.lt(180, 'the swath angle must be below 180°')
-		.optional()
+	spacingKm: bounded('spacingKm', 'the spacing').optional(),
+	swathAngleDeg: bounded('swathAngleDeg', 'the swath angle').optional()
 });
 
 export type DepthProfileRequest = z.infer<typeof depthProfileRequestSchema>;

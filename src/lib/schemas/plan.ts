@@ -2,27 +2,54 @@
 // Coordinates are checked here so that a bad position is refused with its place named.
 import { z } from 'zod';
 import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
+import { axisProblem, SIZES } from '$lib/engine/limits';
 import { lonLatPosition } from './depthProfile';
+import { bounded } from './limits';
 
 // One definition of a valid [lon, lat] position, shared with the depth-profile API.
 const position = lonLatPosition;
 
 export const lineString = z.object({
 	type: z.literal('LineString'),
-	coordinates: z.array(position).min(2, 'a line needs at least two positions')
+	coordinates: z
+		.array(position)
+		.min(2, 'a line needs at least two positions')
+		.max(SIZES.lineVertices, `a line may have at most ${SIZES.lineVertices} positions`)
+});
+
+/** A ridge axis: bounded so the nearest-point search always answers fast (see axisProblem). */
+export const axisLineString = z.object({
+	type: z.literal('LineString'),
+	coordinates: z
+		.array(position)
+		.min(2, 'an axis needs at least two positions')
+		.superRefine((coords, ctx) => {
+			const p = axisProblem(coords);
+			if (p)
+				ctx.addIssue({
+					code: 'custom',
+					message: p.message,
+					path: p.vertex === undefined ? [] : [p.vertex]
+				});
+		})
 });
 
 export const polygon = z.object({
 	type: z.literal('Polygon'),
 	coordinates: z
-		.array(z.array(position).min(4, 'a ring needs at least four positions (closed)'))
+		.array(
+			z
+				.array(position)
+				.min(4, 'a ring needs at least four positions (closed)')
+				.max(SIZES.ringVertices, `a ring may have at most ${SIZES.ringVertices} positions`)
+		)
 		.min(1, 'a polygon needs a ring')
 });
 
 export const point = z.object({ type: z.literal('Point'), coordinates: position });
 
 export const ridgeProps = z.object({
-	fullRateMmYr: z.number().positive('the full spreading rate must be above 0').max(250),
+	fullRateMmYr: bounded('fullRateMmYr'),
 	asymmetry: z.number().min(0).max(1).default(0.5),
 	potentialTemperatureC: z
 		.number()
@@ -30,32 +57,41 @@ export const ridgeProps = z.object({
 		.max(MAX_POTENTIAL_TEMPERATURE_C)
 		.nullable()
 		.default(null),
-	axialDepthM: z.number().min(0).max(8000).nullable().default(null)
+	axialDepthM: bounded('axialDepthM').nullable().default(null)
 });
 
 export const lineProps = z.object({
 	purpose: z.enum(['multibeam', 'magnetics', 'gravity', 'seismic']).default('multibeam'),
-	surveySpeedKn: z.number().positive('the survey speed must be above 0').max(20).default(8),
-	overlapPct: z.number().min(0).max(90).default(30),
+	surveySpeedKn: bounded('surveySpeedKn').default(8),
+	overlapPct: bounded('overlapPct').default(30),
 	ihoOrder: z.enum(['exclusive', 'special', '1a', '1b', '2']).default('2'),
 	/** The survey area a generated line covers, if any. */
 	areaId: z.string().min(1).nullable().default(null)
 });
 
 export const areaProps = z.object({
-	overlapPct: z.number().min(0).max(90).default(30),
-	surveySpeedKn: z.number().positive().max(20).default(8)
+	overlapPct: bounded('overlapPct').default(30),
+	surveySpeedKn: bounded('surveySpeedKn').default(8)
 });
 
 export const stationProps = z.object({
 	stationKind: z.enum(['ctd', 'dredge', 'core', 'dive']),
-	params: z.record(z.string(), z.union([z.number(), z.string()])).default({})
+	params: z
+		.record(
+			z.string().max(40),
+			z.union([bounded('stationParam', 'a station setting'), z.string().max(80)])
+		)
+		.refine(
+			(p) => Object.keys(p).length <= SIZES.stationParams,
+			`at most ${SIZES.stationParams} settings`
+		)
+		.default({})
 });
 
 const name = z.string().trim().min(1, 'give it a name').max(80);
 
 export const newFeatureSchema = z.discriminatedUnion('kind', [
-	z.object({ kind: z.literal('ridge'), name, geometry: lineString, properties: ridgeProps }),
+	z.object({ kind: z.literal('ridge'), name, geometry: axisLineString, properties: ridgeProps }),
 	z.object({
 		kind: z.literal('line'),
 		name,
@@ -80,11 +116,14 @@ export const featurePatchSchema = z.object({
 export type FeaturePatch = z.infer<typeof featurePatchSchema>;
 
 export const bulkEditSchema = z.object({
-	ids: z.array(z.string()).min(1, 'choose at least one line'),
+	ids: z
+		.array(z.string())
+		.min(1, 'choose at least one line')
+		.max(SIZES.planItems, `at most ${SIZES.planItems} lines at once`),
 	properties: z
 		.object({
-			surveySpeedKn: z.number().positive().max(20).optional(),
-			overlapPct: z.number().min(0).max(90).optional()
+			surveySpeedKn: bounded('surveySpeedKn').optional(),
+			overlapPct: bounded('overlapPct').optional()
 		})
 		.refine((p) => p.surveySpeedKn !== undefined || p.overlapPct !== undefined, 'nothing to change')
 });

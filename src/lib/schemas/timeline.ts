@@ -1,36 +1,27 @@
 // Zod schemas for the timeline, clearances and checklist forms and the order API.
 import { z } from 'zod';
-import { toUtc } from './cruise';
+import { SIZES } from '$lib/engine/limits';
+import { validInstant } from './cruise';
+import { bounded } from './limits';
 
 export const orderSchema = z.object({
 	items: z
 		.array(z.object({ id: z.string().min(1), reversed: z.boolean().default(false) }))
-		.max(2000)
+		.max(SIZES.planItems)
 });
 
 export const timingSchema = z.object({
-	turnH: z.number({ message: 'Enter hours.' }).min(0).max(24).default(0.5),
-	mobilisationH: z.number({ message: 'Enter hours.' }).min(0).max(240).default(24),
-	demobilisationH: z.number({ message: 'Enter hours.' }).min(0).max(240).default(12),
+	turnH: bounded('turnH', 'The turn time').default(0.5),
+	mobilisationH: bounded('mobilisationH', 'Mobilisation').default(24),
+	demobilisationH: bounded('mobilisationH', 'Demobilisation').default(12),
 	marginMode: z.enum(['pct', 'days']).default('pct'),
-	weatherMarginPct: z
-		.number({ message: 'Enter a percentage.' })
-		.min(0, 'The margin cannot be negative.')
-		.max(100, 'The margin is at most 100 %.')
-		.default(10),
-	weatherMarginDays: z
-		.number({ message: 'Enter days.' })
-		.min(0, 'The margin cannot be negative.')
-		.max(60)
-		.default(0)
+	weatherMarginPct: bounded('weatherMarginPct', 'The weather margin').default(10),
+	weatherMarginDays: bounded('weatherMarginDays', 'The weather margin').default(0)
 });
 
-const utcInstant = z
-	.string()
-	.trim()
-	.refine((s) => toUtc(s) !== null && !Number.isNaN(toUtc(s)!.getTime()), {
-		message: 'Enter a date and time, e.g. 2027-05-08T12:00 (UTC).'
-	});
+const utcInstant = z.string().trim().refine(validInstant, {
+	message: 'Enter a date and time between 1950 and 2200, e.g. 2027-05-08T12:00 (UTC).'
+});
 
 export const clockChangeSchema = z.object({
 	at: utcInstant,
@@ -49,7 +40,7 @@ export const addItemSchema = z.object({
 
 export const portCallSchema = z.object({
 	portId: z.string().min(1, 'Choose a port.'),
-	hours: z.number({ message: 'Enter hours alongside.' }).min(1).max(480).default(36)
+	hours: bounded('portCallH', 'Hours alongside').default(36)
 });
 
 export const idSchema = z.object({ id: z.string().min(1) });

@@ -7,6 +7,7 @@ import type { Feature, FeatureCollection, Geometry } from 'geojson';
 import type { PlanDoc } from '$lib/engine/formats';
 import {
 	areaProps,
+	axisLineString,
 	lineProps,
 	ridgeProps,
 	stationProps,
@@ -366,7 +367,7 @@ export function update(
 		switch (kind) {
 			case 'ridge': {
 				const geometry = patch.geometry
-					? parseOr(lineString, patch.geometry, 'geometry')
+					? parseOr(axisLineString, patch.geometry, 'geometry')
 					: undefined;
 				const p = parseOr(ridgeProps, props, 'properties');
 				tx.update(ridgeSegment)

@@ -3,6 +3,7 @@
  * waypoint list and RTZ 1.2. Readers never throw: whatever is wrong comes back as problems with
  * where and which field, next to the parts that were valid.
  */
+import { axisProblem, inRange, LIMITS, rangeMessage, SIZES } from '../limits';
 import { readCsv, writeCsv } from './csv';
 import { readGeoJson, writeGeoJson } from './geojson';
 import { readGpx, writeGpx } from './gpx';
@@ -21,6 +22,7 @@ import {
 	FORMATS,
 	type ExportedFile,
 	type FormatId,
+	type ImportProblem,
 	type ImportResult,
 	type LonLat,
 	type PlanDoc
@@ -114,6 +116,56 @@ function assertExportable(plan: PlanDoc): void {
 	plan.stations.forEach((s) => check('station', s.name, [s.position]));
 }
 
+/**
+ * The shared size and value limits (engine/limits.ts) applied to what a file holds, so an import
+ * cannot store what the API would refuse: item counts, vertices, axis shape, station settings.
+ */
+export function sizeProblems(plan: PlanDoc): ImportProblem[] {
+	const out: ImportProblem[] = [];
+	const err = (where: string, message: string, field?: string) =>
+		out.push({ where, message, severity: 'error', ...(field ? { field } : {}) });
+	for (const kind of ['ridges', 'lines', 'areas', 'stations'] as const) {
+		if (plan[kind].length > SIZES.planItems)
+			err(
+				'file',
+				`at most ${SIZES.planItems} ${kind} in one plan; this file has ${plan[kind].length}`
+			);
+	}
+	plan.ridges.forEach((r) => {
+		const p = axisProblem(r.axis);
+		if (p) err(`ridge "${r.name}"`, p.message, 'axis');
+	});
+	plan.lines.forEach((l) => {
+		if (l.coords.length > SIZES.lineVertices)
+			err(
+				`line "${l.name}"`,
+				`a line may have at most ${SIZES.lineVertices} positions; this one has ${l.coords.length}`,
+				'coords'
+			);
+	});
+	plan.areas.forEach((a) => {
+		if (a.ring.length > SIZES.ringVertices)
+			err(
+				`area "${a.name}"`,
+				`a ring may have at most ${SIZES.ringVertices} positions; this one has ${a.ring.length}`,
+				'ring'
+			);
+	});
+	plan.stations.forEach((st) => {
+		const entries = Object.entries(st.params);
+		if (entries.length > SIZES.stationParams)
+			err(`station "${st.name}"`, `at most ${SIZES.stationParams} settings`, 'params');
+		for (const [k, v] of entries)
+			if (typeof v === 'number' && !inRange(v, LIMITS.stationParam))
+				err(
+					`station "${st.name}"`,
+					rangeMessage(`params.${k}`, LIMITS.stationParam),
+					`params.${k}`
+				);
+	});
+	return out;
+}
+
 /** Read a file of the given format. Never throws. */
 export function importPlan(
 	text: string,
@@ -155,6 +207,7 @@ export function importPlan(
 			]
 		};
 	}
+	result.problems.push(...sizeProblems(result.plan));
 	if (result.plan.name === emptyPlan().name && options.filename) {
 		result.plan.name = options.filename.replace(/^.*[\\/]/, '').replace(/\.[^.]+$/, '');
 	}

@@ -3,6 +3,7 @@
  * coordinate checks and the validation that turns loosely typed file fields into plan items,
  * so all five formats accept and reject the same things with the same words.
  */
+import { LIMITS, type Range } from '../limits';
 import { normalizeLon } from './coordinates';
 import {
 	IHO_ORDERS,
@@ -454,13 +455,16 @@ function readTimes(raw: RawFields, ctx: Ctx): { plannedStart?: string; plannedEn
 	return out;
 }
 
-const SPEED: NumberRule = { above: 0, max: 40 };
-const OVERLAP: NumberRule = { min: 0, below: 100 };
-const DEPTH: NumberRule = { min: 0, max: 12000 };
+// The shared limits (engine/limits.ts): an import accepts exactly what the API and forms accept.
+const rule = (r: Range): NumberRule =>
+	r.minExclusive ? { above: r.min, max: r.max } : { min: r.min, max: r.max };
+const SPEED = rule(LIMITS.surveySpeedKn);
+const OVERLAP = rule(LIMITS.overlapPct);
+const DEPTH = rule(LIMITS.axialDepthM);
 const POSITIVE: NumberRule = { min: 0 };
 
 export function buildRidge(raw: RawFields, axis: LonLat[], ctx: Ctx, n: number): PlanRidge | null {
-	const fullRateMmYr = requiredNumber(raw, 'fullRateMmYr', { above: 0, max: 300 }, ctx, 'ridge');
+	const fullRateMmYr = requiredNumber(raw, 'fullRateMmYr', rule(LIMITS.fullRateMmYr), ctx, 'ridge');
 	if (fullRateMmYr === false) return null;
 	const ridge: PlanRidge = {
 		...readId(raw),
