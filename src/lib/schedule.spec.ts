@@ -123,3 +123,15 @@ describe('dates and clocks', () => {
 		expect(clock(utc('2027-05-03T08:00Z'), -600)).toBe('2027-05-02 22:00');
 	});
 });
+
+describe('day rows stay bounded', () => {
+	it('gives at most SIZES.timelineDays rows for a plan that would run for years', async () => {
+		const { SIZES } = await import('$lib/engine/limits');
+		const start = Date.UTC(2027, 0, 1);
+		const t = {
+			events: [{ kind: 'line', name: 'L', start, end: start + 5000 * 86_400_000 }]
+		} as unknown as Parameters<typeof dayRows>[0];
+		const rows = dayRows(t, { departure: { at: start, utcOffsetMinutes: 0 } } as never);
+		expect(rows).toHaveLength(SIZES.timelineDays);
+	});
+});

@@ -1,6 +1,7 @@
 // Shaping a built timeline for people: legs port to port, the day-by-day table, stable event keys
 // and times in UTC beside ship's local time. Pure: the browser and the server both use it. All the
 // timing itself is in engine/timeline.ts.
+import { SIZES } from '$lib/engine/limits';
 import type { Timeline, TimelineEvent, TimelineInput, TimelineItem } from './engine/timeline';
 
 const DAY_MS = 86_400_000;
@@ -112,7 +113,10 @@ export interface DayRow {
 	offsetMinutes: number;
 }
 
-/** One row per UTC calendar day the timeline touches, hours per category summing to 24 at sea. */
+/**
+ * One row per UTC calendar day the timeline touches, hours per category summing to 24 at sea;
+ * at most SIZES.timelineDays rows.
+ */
 export function dayRows(
 	t: Timeline,
 	input: Pick<TimelineInput, 'departure' | 'clockChanges'>
@@ -125,7 +129,9 @@ export function dayRows(
 	const sailDay = utcDay(departureAt);
 	const home = returnAt(t);
 	const out: DayRow[] = [];
-	for (let day = first; day < lastEnd; day += DAY_MS) {
+	// At most the shared limit of rows, however long a plan runs (its totals say how long).
+	const stop = Math.min(lastEnd, first + SIZES.timelineDays * DAY_MS);
+	for (let day = first; day < stop; day += DAY_MS) {
 		const next = day + DAY_MS;
 		const hours: Record<Category, number> = {
 			science: 0,

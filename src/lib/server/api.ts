@@ -2,6 +2,8 @@
 // and request-body reading that turns bad JSON and schema failures into 400/422 answers.
 import { isHttpError, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
+import { EngineInputError } from '$lib/engine/profile';
+import { EngineBudgetError, EngineBusyError } from './engine-errors';
 
 const CODES: Record<number, string> = {
 	400: 'bad_request',
@@ -14,7 +16,8 @@ const CODES: Record<number, string> = {
 	415: 'unsupported_media_type',
 	422: 'unprocessable',
 	429: 'too_many_requests',
-	500: 'internal'
+	500: 'internal',
+	503: 'busy'
 };
 
 export class ApiError extends Error {
@@ -45,6 +48,16 @@ export function api<E extends RequestEvent>(
 		} catch (e) {
 			if (e instanceof ApiError) return apiError(e.status, e.message, e.code, e.details);
 			if (isHttpError(e)) return apiError(e.status, e.body.message);
+			if (e instanceof EngineInputError)
+				return apiError(422, `${e.field}: ${e.message}`, 'invalid', [
+					{ field: e.field, message: e.message }
+				]);
+			if (e instanceof EngineBudgetError) return apiError(422, e.message, 'too_heavy');
+			if (e instanceof EngineBusyError) {
+				const r = apiError(503, e.message, 'busy');
+				r.headers.set('retry-after', '5');
+				return r;
+			}
 			throw e;
 		}
 	};

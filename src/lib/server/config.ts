@@ -24,6 +24,12 @@ export const config = {
 	mailCatcherDir: e.MAIL_CATCHER_DIR || 'data/mailbox',
 	/** Milliseconds between outbox sweeps. */
 	outboxIntervalMs: int('OUTBOX_INTERVAL_MS', 5000),
+	/** The engine worker pool (src/lib/server/engine-pool.ts). */
+	engine: {
+		threads: int('ENGINE_THREADS', 2),
+		budgetMs: int('ENGINE_BUDGET_MS', 10_000),
+		maxQueue: int('ENGINE_MAX_QUEUE', 64)
+	},
 	signIn: {
 		windowMs: int('SIGNIN_WINDOW_MS', 15 * 60_000),
 		maxPerAccount: int('SIGNIN_MAX_PER_ACCOUNT', 5),

@@ -36,7 +36,13 @@ import {
 	type Vessel
 } from './db/schema';
 import { newId } from './ids';
-import { computeLine, computeStation, planSettings, type PlanSettings } from './plancompute';
+import {
+	planSettings,
+	type LineValues,
+	type PlanSettings,
+	type StationValues
+} from './plancompute';
+import * as plancache from './plancache';
 
 export type PlanKind = 'ridge' | 'line' | 'area' | 'station';
 
@@ -107,7 +113,7 @@ function ridgeFeature(r: RidgeSegment): Feature {
 	};
 }
 
-function lineFeature(l: SurveyLine, s: PlanSettings): Feature {
+function lineFeature(l: SurveyLine, v: LineValues): Feature {
 	return {
 		type: 'Feature',
 		id: l.id,
@@ -120,7 +126,7 @@ function lineFeature(l: SurveyLine, s: PlanSettings): Feature {
 			overlapPct: l.overlapPct,
 			ihoOrder: l.ihoOrder,
 			areaId: l.areaId,
-			...computeLine(l, s)
+			...v
 		}
 	};
 }
@@ -139,7 +145,7 @@ function areaFeature(a: SurveyArea): Feature {
 	};
 }
 
-function stationFeature(st: Station, s: PlanSettings): Feature {
+function stationFeature(st: Station, v: StationValues): Feature {
 	return {
 		type: 'Feature',
 		id: st.id,
@@ -149,7 +155,7 @@ function stationFeature(st: Station, s: PlanSettings): Feature {
 			name: st.name,
 			stationKind: st.kind,
 			params: st.params,
-			...computeStation(st, s)
+			...v
 		}
 	};
 }
@@ -164,9 +170,10 @@ export interface PlanCollection extends FeatureCollection {
 	};
 }
 
-export function collection(cruiseId: string, canEdit: boolean): PlanCollection {
+export async function collection(cruiseId: string, canEdit: boolean): Promise<PlanCollection> {
 	const r = rows(cruiseId);
-	const s = planSettings(r);
+	const s = planSettings({ ...r, ridges: [] });
+	const v = await plancache.values(r);
 	return {
 		type: 'FeatureCollection',
 		cruise: {
@@ -179,8 +186,8 @@ export function collection(cruiseId: string, canEdit: boolean): PlanCollection {
 		features: [
 			...r.ridges.map(ridgeFeature),
 			...r.areas.map(areaFeature),
-			...r.lines.map((l) => lineFeature(l, s)),
-			...r.stations.map((st) => stationFeature(st, s))
+			...r.lines.map((l) => lineFeature(l, v.lines[l.id])),
+			...r.stations.map((st) => stationFeature(st, v.stations[st.id]))
 		]
 	};
 }
@@ -229,24 +236,24 @@ function locate(cruiseId: string, id: string): { kind: PlanKind } {
 	throw new ApiError(404, 'No such feature on this cruise.');
 }
 
-export function feature(cruiseId: string, id: string): Feature {
+export async function feature(cruiseId: string, id: string): Promise<Feature> {
 	const { kind } = locate(cruiseId, id);
 	const r = rows(cruiseId);
-	const s = planSettings(r);
+	const v = kind === 'line' || kind === 'station' ? await plancache.values(r) : null;
 	switch (kind) {
 		case 'ridge':
 			return ridgeFeature(r.ridges.find((x) => x.id === id)!);
 		case 'line':
 			return lineFeature(
 				r.lines.find((x) => x.id === id)!,
-				s
+				v!.lines[id]
 			);
 		case 'area':
 			return areaFeature(r.areas.find((x) => x.id === id)!);
 		case 'station':
 			return stationFeature(
 				r.stations.find((x) => x.id === id)!,
-				s
+				v!.stations[id]
 			);
 	}
 }
@@ -268,7 +275,7 @@ function assertArea(cruiseId: string, areaId: string | null | undefined) {
 		]);
 }
 
-export function create(actorId: string, cruiseId: string, f: NewFeature): Feature {
+export function create(actorId: string, cruiseId: string, f: NewFeature): Promise<Feature> {
 	if (f.kind === 'line') assertArea(cruiseId, f.properties.areaId);
 	const id = newId();
 	db.transaction((tx) => {
@@ -353,14 +360,14 @@ function parseOr<T>(
 	return r.data;
 }
 
-export function update(
+export async function update(
 	actorId: string,
 	cruiseId: string,
 	id: string,
 	patch: FeaturePatch
-): Feature {
+): Promise<Feature> {
 	const { kind } = locate(cruiseId, id);
-	const current = feature(cruiseId, id);
+	const current = await feature(cruiseId, id);
 	const props = { ...(current.properties as Record<string, unknown>), ...(patch.properties ?? {}) };
 	const name = patch.name ?? (current.properties as { name: string }).name;
 	db.transaction((tx) => {
@@ -457,9 +464,9 @@ export function bulkEditLines(
 
 // ---------------------------------------------------------------- interchange with the formats
 
-export function toPlanDoc(cruiseId: string): PlanDoc {
+export async function toPlanDoc(cruiseId: string): Promise<PlanDoc> {
 	const r = rows(cruiseId);
-	const s = planSettings(r);
+	const v = await plancache.values(r);
 	return {
 		name: r.cruise.code,
 		ridges: r.ridges.map((x) => ({
@@ -479,7 +486,7 @@ export function toPlanDoc(cruiseId: string): PlanDoc {
 			surveySpeedKn: x.surveySpeedKn,
 			overlapPct: x.overlapPct,
 			ihoOrder: x.ihoOrder,
-			computed: lineComputed(computeLine(x, s))
+			computed: lineComputed(v.lines[x.id])
 		})),
 		areas: r.areas.map((x) => ({
 			id: x.id,
@@ -494,13 +501,13 @@ export function toPlanDoc(cruiseId: string): PlanDoc {
 			kind: x.kind,
 			position: [x.lon, x.lat],
 			params: x.params,
-			computed: stationComputed(computeStation(x, s))
+			computed: stationComputed(v.stations[x.id])
 		}))
 	};
 }
 
 // Exports carry computed values only where a ridge makes them known.
-function lineComputed(v: ReturnType<typeof computeLine>) {
+function lineComputed(v: LineValues) {
 	return v.minDepthM == null || v.maxDepthM == null
 		? undefined
 		: {
@@ -510,7 +517,7 @@ function lineComputed(v: ReturnType<typeof computeLine>) {
 				maxDepthM: v.maxDepthM
 			};
 }
-function stationComputed(v: ReturnType<typeof computeStation>) {
+function stationComputed(v: StationValues) {
 	return v.depthM == null || v.durationH == null
 		? undefined
 		: { depthM: v.depthM, durationH: v.durationH };

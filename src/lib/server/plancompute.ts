@@ -21,7 +21,7 @@ export interface PlanSettings {
 const MAX_SAMPLES = 2000;
 
 export function planSettings(r: {
-	cruise: Cruise;
+	cruise: Pick<Cruise, 'depthModel'>;
 	vessel: Vessel | null;
 	ridges: RidgeSegment[];
 }): PlanSettings {

@@ -31,7 +31,8 @@ import {
 	type SurveyLine
 } from './db/schema';
 import { newId } from './ids';
-import { computeStation, planSettings } from './plancompute';
+import * as plancache from './plancache';
+import type { planSettings } from './plancompute';
 
 type PlanRows = Parameters<typeof planSettings>[0] & {
 	lines: SurveyLine[];
@@ -105,7 +106,8 @@ export function load(cruiseId: string, d: Reader = appDb): TimelineData {
 	const c = d.select().from(cruise).where(eq(cruise.id, cruiseId)).get();
 	if (!c) throw new ApiError(404, 'No such cruise.');
 	const rows = planRows(d, c);
-	const settings = planSettings(rows);
+	// Station durations per plan revision, shared with the plan endpoint's cache.
+	const values = plancache.valuesSync(rows);
 	const ports = d.select().from(port).orderBy(asc(port.name)).all();
 	const portById = new Map(ports.map((p) => [p.id, p]));
 	const lineById = new Map(rows.lines.map((l) => [l.id, l]));
@@ -146,7 +148,7 @@ export function load(cruiseId: string, d: Reader = appDb): TimelineData {
 			});
 		} else if (it.kind === 'station' && it.stationId && stationById.has(it.stationId)) {
 			const s = stationById.get(it.stationId)!;
-			const computed = computeStation(s, settings).durationH;
+			const computed = values.stations[s.id]?.durationH ?? null;
 			const durationH = computed ?? 0;
 			if (computed == null)
 				notes.push(`${s.name} has no predicted depth (no ridge segment), so it is timed at 0 h.`);

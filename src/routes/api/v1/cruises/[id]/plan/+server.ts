@@ -4,10 +4,10 @@ import * as guards from '$lib/server/guards';
 import * as plan from '$lib/server/plan';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = api((event) => {
+export const GET: RequestHandler = api(async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
 	const canEdit = access.isAdmin || access.role === 'chief_scientist';
-	return json(plan.collection(access.cruise.id, canEdit), {
+	return json(await plan.collection(access.cruise.id, canEdit), {
 		headers: { 'content-type': 'application/geo+json' }
 	});
 });

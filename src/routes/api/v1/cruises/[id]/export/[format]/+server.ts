@@ -4,12 +4,12 @@ import * as guards from '$lib/server/guards';
 import * as plan from '$lib/server/plan';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = api((event) => {
+export const GET: RequestHandler = api(async (event) => {
 	const { cruise } = guards.requireCruiseRole(event, event.params.id);
 	const format = event.params.format as FormatId;
 	if (!(FORMATS as readonly string[]).includes(format))
 		throw new ApiError(404, `Unknown export format "${format}"; use one of ${FORMATS.join(', ')}.`);
-	const file = exportPlan(plan.toPlanDoc(cruise.id), format);
+	const file = exportPlan(await plan.toPlanDoc(cruise.id), format);
 	return new Response(file.body, {
 		headers: {
 			'content-type': file.mimeType.includes('charset')

@@ -8,5 +8,5 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = api(async (event) => {
 	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 	const input = await readJson(event, newFeatureSchema);
-	return json(plan.create(user.id, cruise.id, input), { status: 201 });
+	return json(await plan.create(user.id, cruise.id, input), { status: 201 });
 });

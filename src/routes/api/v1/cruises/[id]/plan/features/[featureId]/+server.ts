@@ -5,15 +5,15 @@ import * as plan from '$lib/server/plan';
 import { featurePatchSchema } from '$lib/schemas/plan';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = api((event) => {
+export const GET: RequestHandler = api(async (event) => {
 	const { cruise } = guards.requireCruiseRole(event, event.params.id);
-	return json(plan.feature(cruise.id, event.params.featureId));
+	return json(await plan.feature(cruise.id, event.params.featureId));
 });
 
 export const PATCH: RequestHandler = api(async (event) => {
 	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 	const patch = await readJson(event, featurePatchSchema);
-	return json(plan.update(user.id, cruise.id, event.params.featureId, patch));
+	return json(await plan.update(user.id, cruise.id, event.params.featureId, patch));
 });
 
 export const DELETE: RequestHandler = api((event) => {
