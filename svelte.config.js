@@ -7,7 +7,30 @@ const config = {
 	kit: {
 		// BUILD_DIR lets parallel builds (e.g. several test runs) keep apart.
 		adapter: adapter({ out: process.env.BUILD_DIR || 'build' }),
-		csrf: { trustedOrigins: [] },
+		// The cross-site form check is done in hooks.server.ts (same rule as SvelteKit's), so that
+		// API paths can refuse in the API's JSON error shape.
+		csrf: { trustedOrigins: ['*'] },
+		// Content-Security-Policy on every page and error page; SvelteKit adds nonces (hashes for
+		// prerendered pages) for its own inline scripts. MapLibre runs its worker from our own
+		// bundle and makes blob: URLs for images and workers; styles stay inline-able because
+		// Svelte and MapLibre set style attributes.
+		csp: {
+			mode: 'auto',
+			directives: {
+				'default-src': ['self'],
+				'script-src': ['self'],
+				'style-src': ['self', 'unsafe-inline'],
+				'img-src': ['self', 'data:', 'blob:'],
+				'font-src': ['self', 'data:'],
+				'connect-src': ['self', 'blob:', 'data:'],
+				'worker-src': ['self', 'blob:'],
+				'child-src': ['self', 'blob:'],
+				'object-src': ['none'],
+				'base-uri': ['self'],
+				'form-action': ['self'],
+				'frame-ancestors': ['none']
+			}
+		},
 		typescript: {
 			// Type-check the scripts and root config files too, not only src/ and tests/.
 			config: (cfg) => {

@@ -1,4 +1,4 @@
-import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
+import { json, text, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import {
 	SESSION_COOKIE,
@@ -7,6 +7,7 @@ import {
 	validateApiToken,
 	validateSessionToken
 } from '$lib/server/auth';
+import { apiError } from '$lib/server/api';
 import { db } from '$lib/server/db';
 import { newId } from '$lib/server/ids';
 import * as outbox from '$lib/server/mail/outbox';
@@ -52,7 +53,27 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(handleSession, securityHeaders);
+const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
+
+/**
+ * SvelteKit's cross-site form check (svelte.config.js hands it to us): a form-typed body sent with
+ * a state-changing method from another origin is refused; on API paths in the JSON error shape.
+ */
+const csrf: Handle = async ({ event, resolve }) => {
+	const { request, url } = event;
+	const type = request.headers.get('content-type')?.split(';', 1)[0].trim().toLowerCase() ?? '';
+	const unsafe = ['POST', 'PUT', 'PATCH', 'DELETE'].includes(request.method);
+	if (unsafe && FORM_TYPES.includes(type) && request.headers.get('origin') !== url.origin) {
+		const message = `Cross-site ${request.method} form submissions are forbidden`;
+		if (url.pathname.startsWith('/api/')) return apiError(403, message, 'cross_site');
+		return request.headers.get('accept') === 'application/json'
+			? json({ message }, { status: 403 })
+			: text(message, { status: 403 });
+	}
+	return resolve(event);
+};
+
+export const handle = sequence(csrf, handleSession, securityHeaders);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	const id = newId();

@@ -2,7 +2,7 @@
 // 30-day sliding expiry renewed when half used. Passwords hashed with argon2id.
 import { hash, verify } from '@node-rs/argon2';
 import type { Cookies } from '@sveltejs/kit';
-import { and, eq, isNull } from 'drizzle-orm';
+import { and, eq, isNull, ne } from 'drizzle-orm';
 import type { Db } from './db/client';
 import { apiToken, session, user, type GlobalRole } from './db/schema';
 import { hashSecret, newId, newSecret } from './ids';
@@ -82,6 +82,13 @@ export function invalidateSession(db: Db, sessionId: string) {
 
 export function invalidateAllSessions(db: Db, userId: string) {
 	db.delete(session).where(eq(session.userId, userId)).run();
+}
+
+/** Ends every session of the account except the one given (the person changing their password). */
+export function invalidateOtherSessions(db: Db, userId: string, keepSessionId: string) {
+	db.delete(session)
+		.where(and(eq(session.userId, userId), ne(session.id, keepSessionId)))
+		.run();
 }
 
 export function setSessionCookie(

@@ -9,7 +9,6 @@ import { existsSync, renameSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Piscina from 'piscina';
-import workerSource from 'virtual:engine-worker';
 import { EngineInputError } from '$lib/engine/profile';
 import { config } from './config';
 import { EngineBudgetError, EngineBusyError } from './engine-errors';
@@ -18,8 +17,11 @@ import type { EngineTasks, TaskName, TaskOutcome } from './engine-tasks';
 export { EngineBudgetError, EngineBusyError };
 
 let pool: Piscina | null = null;
+let starting: Promise<Piscina> | null = null;
 
-function workerFile(): string {
+async function workerFile(): Promise<string> {
+	// Loaded when first needed: outside Vite (scripts run by tsx) there is no such module.
+	const workerSource = (await import('virtual:engine-worker')).default;
 	const hash = createHash('sha256').update(workerSource).digest('hex').slice(0, 16);
 	const file = join(tmpdir(), `wakeline-engine-worker-${hash}.mjs`);
 	if (!existsSync(file)) {
@@ -30,15 +32,18 @@ function workerFile(): string {
 	return file;
 }
 
-function thePool(): Piscina {
-	pool ??= new Piscina({
-		filename: workerFile(),
-		minThreads: 1,
-		maxThreads: config.engine.threads,
-		maxQueue: config.engine.maxQueue,
-		idleTimeout: 60_000
-	});
-	return pool;
+function thePool(): Promise<Piscina> {
+	starting ??= workerFile().then(
+		(filename) =>
+			(pool = new Piscina({
+				filename,
+				minThreads: 1,
+				maxThreads: config.engine.threads,
+				maxQueue: config.engine.maxQueue,
+				idleTimeout: 60_000
+			}))
+	);
+	return starting;
 }
 
 export interface RunOptions {
@@ -56,7 +61,7 @@ export async function run<K extends TaskName>(
 	options: RunOptions = {}
 ): Promise<ReturnType<EngineTasks[K]>> {
 	const budgetMs = options.budgetMs ?? config.engine.budgetMs;
-	const p = thePool();
+	const p = await thePool();
 	if (p.queueSize >= config.engine.maxQueue) throw new EngineBusyError();
 	const abort = new AbortController();
 	// The budget counts from when a worker starts the task would be fairer, but piscina does not
@@ -87,5 +92,6 @@ export function stats() {
 export async function close(): Promise<void> {
 	const p = pool;
 	pool = null;
+	starting = null;
 	await p?.destroy();
 }

@@ -10,7 +10,12 @@ import {
 	type GlobalRole,
 	type User
 } from './db/schema';
-import { hashPassword, invalidateAllSessions, verifyPassword } from './auth';
+import {
+	hashPassword,
+	invalidateAllSessions,
+	invalidateOtherSessions,
+	verifyPassword
+} from './auth';
 import { hashSecret, newId, newSecret } from './ids';
 import * as outbox from './mail/outbox';
 import * as templates from './mail/templates';
@@ -56,19 +61,16 @@ export async function signIn(
 	address: string
 ): Promise<SignInResult> {
 	const e = normaliseEmail(email);
-	const keys = throttle.keysFor(e, address);
-	const wait = throttle.lockedFor(db, keys);
+	// Counted before the password is checked: a parallel burst gets at most the limit of checks.
+	const wait = throttle.claimAttempt(db, e, address);
 	if (wait > 0) return { ok: false, reason: 'locked', retryAfterS: Math.ceil(wait / 1000) };
 	const found = findByEmail(e);
 	dummyHash ??= hashPassword('not-a-real-password');
 	const valid = found?.passwordHash
 		? await verifyPassword(found.passwordHash, password)
 		: (await verifyPassword(await dummyHash, password)) && false;
-	if (!found || !valid) {
-		throttle.recordFailure(db, e, address);
-		return { ok: false, reason: 'invalid' };
-	}
-	throttle.clearAccount(db, e);
+	if (!found || !valid) return { ok: false, reason: 'invalid' };
+	throttle.succeeded(db, e, address);
 	return { ok: true, user: found };
 }
 
@@ -154,10 +156,35 @@ export function invitationByToken(token: string) {
 }
 
 /** Accepting creates the account (or reuses it) and, for a cruise invitation, the membership. */
-export async function acceptInvitation(token: string, name: string, password: string) {
+export async function acceptInvitation(
+	token: string,
+	name: string,
+	password: string,
+	/** Who is signed in on the browser answering, if anyone. */
+	signedInUserId: string | null = null,
+	address = 'unknown'
+) {
 	const found = invitationByToken(token);
 	if (!found.ok) throw new DomainError(found.message);
 	const inv = found.invitation;
+	// An invitation to an address that already has an account never signs anyone in as it: the
+	// answer must come from that account signed in, or carry its current password.
+	const existing = findByEmail(inv.email);
+	if (existing && existing.id !== signedInUserId) {
+		// the same attempt limits as the sign-in form: this is a password check too
+		const wait = throttle.claimAttempt(db, existing.email, address);
+		if (wait > 0)
+			throw new DomainError('Too many failed attempts. Try again later.', 'password', 429);
+		const ok = existing.passwordHash
+			? await verifyPassword(existing.passwordHash, password)
+			: false;
+		if (!ok)
+			throw new DomainError(
+				'If this address already has a Wakeline account, sign in to it first or enter its current password.',
+				'password'
+			);
+		throttle.succeeded(db, existing.email, address);
+	}
 	const passwordHash = await hashPassword(password);
 	return db.transaction((tx) => {
 		// Single use even under a double submit: only one transaction flips acceptedAt.
@@ -186,10 +213,36 @@ export async function acceptInvitation(token: string, name: string, password: st
 	});
 }
 
-/** Always answers the same way, whether or not the e-mail has an account. */
-export function requestPasswordReset(email: string) {
-	const u = findByEmail(email);
-	if (!u) return;
+export class RateLimited extends Error {}
+
+/** Reset mails: at most 3 an hour per address asked for, 10 an hour per client. */
+const RESET_WINDOW_MS = 3_600_000;
+const RESETS_PER_EMAIL = 3;
+const RESETS_PER_CLIENT = 10;
+/** Every reset request takes at least this long, so timing cannot tell known from unknown. */
+export const RESET_ANSWER_MS = 300;
+
+/**
+ * Always answers the same way, whether or not the e-mail has an account, in the same time (the
+ * caller awaits the returned promise). Throws RateLimited when the client asked too often; an
+ * address asked for too often is silently not mailed again (the answer must not differ).
+ */
+export async function requestPasswordReset(email: string, client = 'unknown') {
+	const started = Date.now();
+	try {
+		if (!throttle.hit(db, `reset-client:${client}`, RESETS_PER_CLIENT, RESET_WINDOW_MS))
+			throw new RateLimited('Too many reset requests from here. Try again in an hour.');
+		const e = normaliseEmail(email);
+		const u = findByEmail(e);
+		if (!throttle.hit(db, `reset-email:${e}`, RESETS_PER_EMAIL, RESET_WINDOW_MS)) return;
+		if (u) mailResetLink(u);
+	} finally {
+		const left = RESET_ANSWER_MS - (Date.now() - started);
+		if (left > 0) await new Promise((r) => setTimeout(r, left));
+	}
+}
+
+function mailResetLink(u: User) {
 	db.transaction((tx) => {
 		const token = newSecret();
 		tx.insert(passwordReset)
@@ -238,19 +291,42 @@ export async function resetPassword(token: string, password: string) {
 			.run();
 		if (claimed.changes === 0) throw new DomainError('This reset link has already been used.');
 		tx.update(user).set({ passwordHash }).where(eq(user.id, found.reset.userId)).run();
+		endResetLinks(tx, found.reset.userId);
 		audit(tx, { userId: found.reset.userId, action: 'password.reset' });
 	});
 	invalidateAllSessions(db, found.reset.userId);
 	return found.reset.userId;
 }
 
-export async function changePassword(userId: string, current: string, next: string) {
+/** Outstanding reset links of an account stop working (a new password makes them stale). */
+function endResetLinks(tx: Pick<typeof db, 'update'>, userId: string) {
+	tx.update(passwordReset)
+		.set({ usedAt: new Date() })
+		.where(and(eq(passwordReset.userId, userId), isNull(passwordReset.usedAt)))
+		.run();
+}
+
+/**
+ * A new password ends the account's other sessions and its outstanding reset links; the session
+ * that changed it stays signed in.
+ */
+export async function changePassword(
+	userId: string,
+	current: string,
+	next: string,
+	keepSessionId?: string
+) {
 	const u = db.select().from(user).where(eq(user.id, userId)).get();
 	if (!u?.passwordHash || !(await verifyPassword(u.passwordHash, current)))
 		throw new DomainError('The current password is not right.', 'currentPassword');
 	const passwordHash = await hashPassword(next);
-	db.update(user).set({ passwordHash }).where(eq(user.id, userId)).run();
-	audit(db, { userId, action: 'password.changed' });
+	db.transaction((tx) => {
+		tx.update(user).set({ passwordHash }).where(eq(user.id, userId)).run();
+		endResetLinks(tx, userId);
+		audit(tx, { userId, action: 'password.changed' });
+	});
+	if (keepSessionId) invalidateOtherSessions(db, userId, keepSessionId);
+	else invalidateAllSessions(db, userId);
 }
 
 export function rename(userId: string, name: string) {

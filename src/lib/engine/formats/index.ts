@@ -122,46 +122,51 @@ function assertExportable(plan: PlanDoc): void {
  */
 export function sizeProblems(plan: PlanDoc): ImportProblem[] {
 	const out: ImportProblem[] = [];
-	const err = (where: string, message: string, field?: string) =>
+	const err = (where: string, message: string, field?: string) => {
 		out.push({ where, message, severity: 'error', ...(field ? { field } : {}) });
+		return false;
+	};
 	for (const kind of ['ridges', 'lines', 'areas', 'stations'] as const) {
-		if (plan[kind].length > SIZES.planItems)
-			err(
-				'file',
-				`at most ${SIZES.planItems} ${kind} in one plan; this file has ${plan[kind].length}`
-			);
+		if (plan[kind].length > SIZES.planItems) {
+			err('file', `at most ${SIZES.planItems} ${kind} in one plan; this file has ${plan[kind].length}`);
+			plan[kind].length = SIZES.planItems;
+		}
 	}
-	plan.ridges.forEach((r) => {
+	// Items over a limit are left out (as items with a bad value are), each with its problem.
+	plan.ridges = plan.ridges.filter((r) => {
 		const p = axisProblem(r.axis);
-		if (p) err(`ridge "${r.name}"`, p.message, 'axis');
+		return p ? err(`ridge "${r.name}"`, p.message, 'axis') : true;
 	});
-	plan.lines.forEach((l) => {
-		if (l.coords.length > SIZES.lineVertices)
-			err(
-				`line "${l.name}"`,
-				`a line may have at most ${SIZES.lineVertices} positions; this one has ${l.coords.length}`,
-				'coords'
-			);
-	});
-	plan.areas.forEach((a) => {
-		if (a.ring.length > SIZES.ringVertices)
-			err(
-				`area "${a.name}"`,
-				`a ring may have at most ${SIZES.ringVertices} positions; this one has ${a.ring.length}`,
-				'ring'
-			);
-	});
-	plan.stations.forEach((st) => {
+	plan.lines = plan.lines.filter((l) =>
+		l.coords.length > SIZES.lineVertices
+			? err(
+					`line "${l.name}"`,
+					`a line may have at most ${SIZES.lineVertices} positions; this one has ${l.coords.length}`,
+					'coords'
+				)
+			: true
+	);
+	plan.areas = plan.areas.filter((a) =>
+		a.ring.length > SIZES.ringVertices
+			? err(
+					`area "${a.name}"`,
+					`a ring may have at most ${SIZES.ringVertices} positions; this one has ${a.ring.length}`,
+					'ring'
+				)
+			: true
+	);
+	plan.stations = plan.stations.filter((st) => {
 		const entries = Object.entries(st.params);
 		if (entries.length > SIZES.stationParams)
-			err(`station "${st.name}"`, `at most ${SIZES.stationParams} settings`, 'params');
+			return err(`station "${st.name}"`, `at most ${SIZES.stationParams} settings`, 'params');
 		for (const [k, v] of entries)
 			if (typeof v === 'number' && !inRange(v, LIMITS.stationParam))
-				err(
+				return err(
 					`station "${st.name}"`,
 					rangeMessage(`params.${k}`, LIMITS.stationParam),
 					`params.${k}`
 				);
+		return true;
 	});
 	return out;
 }

@@ -32,15 +32,24 @@ export const actions: Actions = {
 	password: async (event) => {
 		const user = guards.requireUser(event);
 		const form = await superValidate(event.request, zod4(changePasswordSchema));
+		const { currentPassword, password } = form.data;
+		form.data = { currentPassword: '', password: '', confirm: '' }; // never sent back
 		if (!form.valid) return fail(400, { passwordForm: form });
 		try {
-			await users.changePassword(user.id, form.data.currentPassword, form.data.password);
+			await users.changePassword(
+				user.id,
+				currentPassword,
+				password,
+				event.locals.session?.via === 'cookie' ? event.locals.session.id : undefined
+			);
 		} catch (e) {
 			if (e instanceof users.DomainError) return setError(form, 'currentPassword', e.message);
 			throw e;
 		}
-		form.data = { currentPassword: '', password: '', confirm: '' };
-		return message(form, { type: 'ok', text: 'Password changed.' });
+		return message(form, {
+			type: 'ok',
+			text: 'Password changed. Your other sessions are signed out and old reset links no longer work.'
+		});
 	},
 	createToken: async (event) => {
 		const user = guards.requireUser(event);

@@ -11,10 +11,15 @@ export const load: PageServerLoad = async () => {
 };
 
 export const actions: Actions = {
-	default: async ({ request }) => {
-		const form = await superValidate(request, zod4(resetRequestSchema));
+	default: async (event) => {
+		const form = await superValidate(event.request, zod4(resetRequestSchema));
 		if (!form.valid) return fail(400, { form });
-		users.requestPasswordReset(form.data.email);
+		try {
+			await users.requestPasswordReset(form.data.email, event.getClientAddress());
+		} catch (e) {
+			if (e instanceof users.RateLimited) return message(form, e.message, { status: 429 });
+			throw e;
+		}
 		return message(form, {
 			type: 'ok',
 			text: `If ${form.data.email} has an account, a reset link is on its way. It works once, for ${users.RESET_LIFETIME_MINUTES} minutes.`

@@ -7,26 +7,23 @@ import { db } from '$lib/server/db';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
 
-function safeNext(next: string | null) {
-	return next && next.startsWith('/') && !next.startsWith('//') ? next : '/cruises';
-}
+import { safeNext as resolveNext } from '$lib/server/links';
+
+const safeNext = (next: string | null, origin: string) => resolveNext(next, origin, '/cruises');
 
 // Public by design: the door itself.
 export const load: PageServerLoad = async ({ locals, url }) => {
-	if (locals.user) redirect(303, safeNext(url.searchParams.get('next')));
+	if (locals.user) redirect(303, safeNext(url.searchParams.get('next'), url.origin));
 	return { form: await superValidate(zod4(signInSchema)) };
 };
 
 export const actions: Actions = {
 	default: async (event) => {
 		const form = await superValidate(event.request, zod4(signInSchema));
+		const password = form.data.password;
+		form.data.password = ''; // never sent back
 		if (!form.valid) return fail(400, { form });
-		const result = await users.signIn(
-			form.data.email,
-			form.data.password,
-			event.getClientAddress()
-		);
-		form.data.password = '';
+		const result = await users.signIn(form.data.email, password, event.getClientAddress());
 		if (!result.ok && result.reason === 'locked') {
 			const minutes = Math.ceil(result.retryAfterS / 60);
 			return message(
@@ -39,6 +36,6 @@ export const actions: Actions = {
 			return setError(form, 'password', 'That e-mail and password do not match an account.');
 		const { token, expiresAt } = createSession(db, result.user.id);
 		setSessionCookie(event.cookies, token, expiresAt, event.url.protocol === 'https:');
-		redirect(303, safeNext(event.url.searchParams.get('next')));
+		redirect(303, safeNext(event.url.searchParams.get('next'), event.url.origin));
 	}
 };

@@ -8,12 +8,13 @@ import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
 
 // Public by design: the single-use token in the link is the credential.
-export const load: PageServerLoad = async ({ params }) => {
+// The answer is the same whether or not the address has an account (nothing here reveals it).
+export const load: PageServerLoad = async ({ params, locals }) => {
 	const found = users.invitationByToken(params.token);
 	return {
 		problem: found.ok ? null : found.message,
 		email: found.ok ? found.invitation.email : null,
-		hasAccount: found.ok ? !!users.findByEmail(found.invitation.email) : false,
+		signedInAs: locals.user?.email ?? null,
 		form: await superValidate(zod4(acceptInvitationSchema))
 	};
 };
@@ -21,14 +22,27 @@ export const load: PageServerLoad = async ({ params }) => {
 export const actions: Actions = {
 	default: async (event) => {
 		const form = await superValidate(event.request, zod4(acceptInvitationSchema));
+		const password = form.data.password;
+		// never send a password back to the browser
+		form.data.password = '';
+		form.data.confirm = '';
 		if (!form.valid) return fail(400, { form });
 		let userId: string;
 		try {
 			userId = (
-				await users.acceptInvitation(event.params.token, form.data.name, form.data.password)
+				await users.acceptInvitation(
+					event.params.token,
+					form.data.name,
+					password,
+					event.locals.user?.id ?? null,
+					event.getClientAddress()
+				)
 			).id;
 		} catch (e) {
-			if (e instanceof users.DomainError) return setError(form, 'name', e.message);
+			if (e instanceof users.DomainError)
+				return setError(form, e.field === 'password' ? 'password' : 'name', e.message, {
+					status: e.status === 429 ? 429 : 400
+				});
 			throw e;
 		}
 		const { token, expiresAt } = createSession(db, userId);

@@ -17,9 +17,12 @@ export const load: PageServerLoad = async ({ params }) => {
 export const actions: Actions = {
 	default: async ({ request, params }) => {
 		const form = await superValidate(request, zod4(passwordPairSchema));
+		const password = form.data.password;
+		form.data.password = ''; // never sent back
+		form.data.confirm = '';
 		if (!form.valid) return fail(400, { form });
 		try {
-			await users.resetPassword(params.token, form.data.password);
+			await users.resetPassword(params.token, password);
 		} catch (e) {
 			if (e instanceof users.DomainError) return setError(form, 'password', e.message);
 			throw e;
