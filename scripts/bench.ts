@@ -7,12 +7,16 @@
  * (b) a 500 × 500 predicted-depth grid;
  * (c) one melting column (uncached);
  * (d) one depth-adaptive line plan over a 100 × 60 km area.
+ * (e) adversarial axis shapes at the shared size limits (engine/limits.ts): a dense zig-zag, a
+ *     wide zig-zag, a spiral and a comb, each 2000 vertices within 10 000 km; the index build and a
+ *     profile, then the exact nearest-point queries alone, which should stay near log(n).
  */
 import { cpus, loadavg } from 'node:os';
 import { depthProfileForRidges, depthGrid, RidgeDepthModel } from '../src/lib/engine/profile';
 import { PolylineIndex, direct, sampleLine, type LonLat } from '../src/lib/engine/geodesy';
 import { meltColumn } from '../src/lib/engine/melt';
 import { planSurvey } from '../src/lib/engine/survey';
+import { axisProblem, SIZES } from '../src/lib/engine/limits';
 
 function median(xs: number[]): number {
 	const s = xs.slice().sort((a, b) => a - b);
@@ -117,6 +121,60 @@ for (const n of [50, 500, 5000]) {
 		lines = plan.lines.length;
 	});
 	report.push([`(d) depth-adaptive plan, 100 × 60 km, ${lines} lines`, ms, '< 200']);
+}
+
+// (e) adversarial axis shapes, each within the shared limits
+{
+	const n = SIZES.axisVertices;
+	const shapes: [string, LonLat[]][] = [
+		// ≈ 5 km legs at a steep angle: every sample is near many legs
+		[
+			'dense zig-zag',
+			Array.from({ length: n }, (_, i) => [-30 + (i % 2 ? 0.0222 : -0.0222), i * 0.00449])
+		],
+		// legs ≈ 4.9 km wide, nearly parallel: the foot jumps from leg to leg along the line
+		[
+			'flat zig-zag',
+			Array.from({ length: n }, (_, i) => [-30 + (i % 2 ? 0.0222 : -0.0222), i * 0.0005])
+		],
+		[
+			'spiral',
+			Array.from({ length: n }, (_, i) => {
+				const t = i / (n - 1);
+				const a = t * 20 * Math.PI;
+				return [-30 + 1.5 * t * Math.cos(a), 5 + 1.5 * t * Math.sin(a)] as LonLat;
+			})
+		],
+		// teeth 20 km long every 2 km
+		[
+			'comb',
+			Array.from({ length: n }, (_, i) => {
+				const k = Math.floor(i / 2);
+				const up = i % 4 === 1 || i % 4 === 2;
+				return [-30 + k * 0.018, up ? 0.18 : 0] as LonLat;
+			})
+		]
+	];
+	for (const [name, ax] of shapes) {
+		const problem = axisProblem(ax);
+		if (problem) throw new Error(`${name}: ${problem.message}`);
+		const cross: LonLat[] = [
+			[ax[0][0] - 1, ax[0][1] - 0.5],
+			[ax[n - 1][0] + 1, ax[n - 1][1] + 0.5]
+		];
+		const ridges = [{ axis: ax, fullRateMmYr: 23 }];
+		let count = 0;
+		const ms = time(5, 1, () => {
+			count = depthProfileForRidges(cross, ridges, { spacingKm: 0.5 }).samples.length;
+		});
+		report.push([`(e) ${name}: profile ${count} samples, ${n}-vertex axis`, ms, '< 2000']);
+		const index = new PolylineIndex([ax]);
+		const s = sampleLine(cross, 500);
+		const q = time(5, 1, () => {
+			for (let k = 0; k < s.count; k++) index.nearest(s.lon[k], s.lat[k]);
+		});
+		report.push([`(e) ${name}: ${s.count} exact nearest-point queries`, q, '']);
+	}
 }
 
 const load = loadavg()[0];

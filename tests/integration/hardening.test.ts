@@ -22,7 +22,7 @@ import {
 	type TestServer
 } from '../support/server';
 
-const BUDGET_MS = 3000;
+const BUDGET_MS = 8000;
 let srv: TestServer;
 let db: Db;
 let token: string;
@@ -115,8 +115,8 @@ describe('no request may block everyone', () => {
 		}
 		const statuses = await heavy;
 		for (const s of statuses) expect([200, 422]).toContain(s);
-		// three queued behind two workers: within two budgets and some slack
-		expect(Date.now() - t0).toBeLessThan(2 * BUDGET_MS + 3000);
+		// three queued behind the workers: each within the budget or stopped at it
+		expect(Date.now() - t0).toBeLessThan(3 * BUDGET_MS + 3000);
 		expect(Math.max(...me)).toBeLessThan(200);
 	});
 
@@ -142,8 +142,9 @@ describe('no request may block everyone', () => {
 		};
 		for (const spacingKm of [1e-9, 0.1]) {
 			const res = await postJson('/api/v1/depth-profile', { ...base, spacingKm });
-			expect(res.status, String(spacingKm)).toBe(422);
-			expect((await field(res)).details?.[0].field).toBe('spacingKm');
+			const body = await res.text();
+			expect(res.status, body).toBe(422);
+			expect(JSON.parse(body).error.details?.[0].field, body).toBe('spacingKm');
 		}
 	});
 
@@ -334,66 +335,79 @@ describe('links that cannot be abused', () => {
 		expect(ok.headers.get('location')).toBe(`/cruises/${cruiseId}/chart`);
 	});
 
-	it('an invitation to an existing account cannot take it over: the typed password must be that account’s', async () => {
+	it('an invitation whose address has since got an account cannot take it over: the typed password must be that account’s', async () => {
+		const email = 'late.joiner@example.org';
 		const { cookie: chief } = await signIn(srv.url, DEMO.chief, DEMO.password, '10.8.7.1');
-		const inv = await fetch(`${srv.url}/cruises/${cruiseId}/members?/invite`, {
-			method: 'POST',
-			body: new URLSearchParams({ email: DEMO.admin, role: 'participant' }),
-			redirect: 'manual',
-			headers: {
-				cookie: chief!,
-				origin: srv.url,
-				accept: 'application/json',
-				'x-sveltekit-action': 'true'
-			}
-		});
-		expect(inv.status).toBe(200);
-		const mail = await waitForMail(
+		const { cookie: admin } = await signIn(srv.url, DEMO.admin, DEMO.password, '10.8.7.1');
+		const action = (path: string, cookie: string, fields: Record<string, string>) =>
+			fetch(srv.url + path, {
+				method: 'POST',
+				body: new URLSearchParams(fields),
+				redirect: 'manual',
+				headers: {
+					cookie,
+					origin: srv.url,
+					accept: 'application/json',
+					'x-sveltekit-action': 'true'
+				}
+			});
+		// a cruise invitation to a new address, then a site invitation the owner accepts first
+		expect(
+			(await action(`/cruises/${cruiseId}/members?/invite`, chief!, { email, role: 'participant' }))
+				.status
+		).toBe(200);
+		const cruiseMail = await waitForMail(
 			srv.mailDir,
-			(m) => m.to.includes(DEMO.admin) && /invite/i.test(m.text)
+			(m) => m.to.includes(email) && /MT27-03/.test(m.subject)
 		);
-		const link = mail.text.match(/\/invite\/(\w+)/)![1];
-		const admin = db.select().from(user).where(eq(user.email, DEMO.admin)).get()!;
+		const cruiseLink = cruiseMail.text.match(/\/invite\/(\w+)/)![1];
+		expect((await action('/admin/users', admin!, { email, role: 'member' })).status).toBe(200);
+		const siteMail = await waitForMail(
+			srv.mailDir,
+			(m) => m.to.includes(email) && !/MT27-03/.test(m.subject)
+		);
+		const siteLink = siteMail.text.match(/\/invite\/(\w+)/)![1];
+		const owner = await formPost(
+			srv.url,
+			`/invite/${siteLink}`,
+			{ name: 'Late Joiner', password: 'owners-own-password', confirm: 'owners-own-password' },
+			{ address: '10.8.7.2' }
+		);
+		expect(owner.status).toBe(303);
+		const u = db.select().from(user).where(eq(user.email, email)).get()!;
+		const member = () =>
+			db
+				.select()
+				.from(cruiseMember)
+				.where(and(eq(cruiseMember.cruiseId, cruiseId), eq(cruiseMember.userId, u.id)))
+				.get();
 
-		// the page does not say whether the address has an account
-		const page = await (await fetch(`${srv.url}/invite/${link}`)).text();
-		expect(page).not.toMatch(/already have an account|hasAccount":true/);
+		// the page answers the same as for a new address
+		const page = await (await fetch(`${srv.url}/invite/${cruiseLink}`)).text();
+		expect(page).toContain('If this address already has a Wakeline account');
 
 		const take = await formPost(
 			srv.url,
-			`/invite/${link}`,
+			`/invite/${cruiseLink}`,
 			{ name: 'Intruder', password: 'attacker-password', confirm: 'attacker-password' },
-			{ address: '10.8.7.2' }
+			{ address: '10.8.7.3' }
 		);
 		expect(take.status).toBe(400);
 		expect(take.headers.getSetCookie().some((c) => c.startsWith('wl_session='))).toBe(false);
-		const body = await take.text();
-		expect(body).not.toContain('attacker-password'); // a failed form never echoes a password
-		const still = db.select().from(user).where(eq(user.id, admin.id)).get()!;
-		expect(still.passwordHash).toBe(admin.passwordHash);
-		expect(still.name).toBe(admin.name);
-		expect(
-			db
-				.select()
-				.from(cruiseMember)
-				.where(and(eq(cruiseMember.cruiseId, cruiseId), eq(cruiseMember.userId, admin.id)))
-				.get()
-		).toBeUndefined();
+		expect(await take.text()).not.toContain('attacker-password'); // a failed form never echoes a password
+		const still = db.select().from(user).where(eq(user.id, u.id)).get()!;
+		expect(still.passwordHash).toBe(u.passwordHash);
+		expect(still.name).toBe('Late Joiner');
+		expect(member()).toBeUndefined();
 
 		const own = await formPost(
 			srv.url,
-			`/invite/${link}`,
-			{ name: admin.name, password: DEMO.password, confirm: DEMO.password },
-			{ address: '10.8.7.3' }
+			`/invite/${cruiseLink}`,
+			{ name: 'Late Joiner', password: 'owners-own-password', confirm: 'owners-own-password' },
+			{ address: '10.8.7.4' }
 		);
 		expect(own.status).toBe(303);
-		expect(
-			db
-				.select()
-				.from(cruiseMember)
-				.where(and(eq(cruiseMember.cruiseId, cruiseId), eq(cruiseMember.userId, admin.id)))
-				.get()?.role
-		).toBe('participant');
+		expect(member()?.role).toBe('participant');
 	});
 });
 
@@ -449,12 +463,15 @@ describe('credentials revoked together', () => {
 
 describe('headers', () => {
 	it('every page and error page carries a CSP with nonces and frame-ancestors none', async () => {
+		const { cookie } = await signIn(srv.url, DEMO.chief, DEMO.password, '10.8.9.1');
 		for (const path of ['/signin', '/no-such-page', `/cruises/${cruiseId}/chart`]) {
-			const res = await fetch(srv.url + path, { redirect: 'manual' });
+			const headers: Record<string, string> = path.includes('/chart') ? { cookie: cookie! } : {};
+			const res = await fetch(srv.url + path, { redirect: 'manual', headers });
+			expect(res.status, path).not.toBe(303);
 			const csp = res.headers.get('content-security-policy');
 			expect(csp, path).toContain("frame-ancestors 'none'");
 			expect(csp, path).toContain("worker-src 'self' blob:");
-			if (res.status !== 303) expect(csp, path).toMatch(/script-src 'self' 'nonce-[\w+/=]+'/);
+			expect(csp, path).toMatch(/script-src 'self' 'nonce-[\w+/=]+'/);
 		}
 	});
 

@@ -1,5 +1,7 @@
 // Settings from the environment. Read from process.env (not $env) because the start, seed and token
 // scripts share these modules with the app; adapter-node passes the real environment through.
+import { availableParallelism } from 'node:os';
+
 const e = process.env;
 
 function int(name: string, fallback: number): number {
@@ -26,7 +28,8 @@ export const config = {
 	outboxIntervalMs: int('OUTBOX_INTERVAL_MS', 5000),
 	/** The engine worker pool (src/lib/server/engine-pool.ts). */
 	engine: {
-		threads: int('ENGINE_THREADS', 2),
+		// one core is left to the event loop, so other requests keep answering during heavy work
+		threads: int('ENGINE_THREADS', Math.max(1, availableParallelism() - 1)),
 		budgetMs: int('ENGINE_BUDGET_MS', 10_000),
 		maxQueue: int('ENGINE_MAX_QUEUE', 64)
 	},

@@ -15,6 +15,8 @@ export interface PlanSettings {
 	vessel: { [K in keyof typeof DEFAULT_VESSEL]: number };
 	/** Predicted depth (with band) and age at a position; null when the cruise has no ridge. */
 	depthAt: (lon: number, lat: number) => (PredictedDepth & { ageMa: number }) | null;
+	/** Depths at consecutive samples of a line (the engine's fast along-line path); null without ridge. */
+	depthsAlong: (lon: Float64Array, lat: Float64Array, alongM: Float64Array) => Float64Array | null;
 }
 
 /** Lines are sampled every kilometre, but never more than this many samples per line. */
@@ -36,7 +38,7 @@ export function planSettings(r: {
 			}
 		: DEFAULT_VESSEL;
 	const model = r.cruise.depthModel;
-	if (r.ridges.length === 0) return { model, vessel, depthAt: () => null };
+	if (r.ridges.length === 0) return { model, vessel, depthAt: () => null, depthsAlong: () => null };
 
 	const depth = new RidgeDepthModel(
 		r.ridges.map((x) => ({
@@ -48,7 +50,12 @@ export function planSettings(r: {
 		})),
 		{ model }
 	);
-	return { model, vessel, depthAt: (lon, lat) => depth.depthAt(lon, lat) };
+	return {
+		model,
+		vessel,
+		depthAt: (lon, lat) => depth.depthAt(lon, lat),
+		depthsAlong: (lon, lat, alongM) => depth.alongLine(lon, lat, alongM).depthM
+	};
 }
 
 export interface LineValues {
@@ -66,13 +73,13 @@ export function computeLine(
 	const durationH = hoursAt(lengthM / 1000, line.surveySpeedKn);
 	if (lengthM === 0) return { lengthKm: 0, durationH: 0, minDepthM: null, maxDepthM: null };
 	const samples = sampleLine(line.coords, Math.max(1000, lengthM / MAX_SAMPLES));
+	const depths = s.depthsAlong(samples.lon, samples.lat, samples.distanceM);
+	if (!depths) return { lengthKm: lengthM / 1000, durationH, minDepthM: null, maxDepthM: null };
 	let min = Infinity;
 	let max = -Infinity;
 	for (let i = 0; i < samples.count; i++) {
-		const d = s.depthAt(samples.lon[i], samples.lat[i]);
-		if (!d) return { lengthKm: lengthM / 1000, durationH, minDepthM: null, maxDepthM: null };
-		if (d.depthM < min) min = d.depthM;
-		if (d.depthM > max) max = d.depthM;
+		if (depths[i] < min) min = depths[i];
+		if (depths[i] > max) max = depths[i];
 	}
 	return { lengthKm: lengthM / 1000, durationH, minDepthM: min, maxDepthM: max };
 }
