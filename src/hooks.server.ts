@@ -9,11 +9,13 @@ import {
 } from '$lib/server/auth';
 import { apiError } from '$lib/server/api';
 import { db } from '$lib/server/db';
+import * as enginePool from '$lib/server/engine-pool';
 import { newId } from '$lib/server/ids';
 import * as outbox from '$lib/server/mail/outbox';
 
 export const init: ServerInit = () => {
 	outbox.startWorker();
+	void enginePool.warm().catch((e) => console.error('engine pool did not start', e));
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {

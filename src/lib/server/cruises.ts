@@ -102,9 +102,24 @@ function assertCodeFree(code: string, exceptId?: string) {
 	if (clash) throw new DomainError(`Another cruise already uses the code ${code}.`, 'code', 409);
 }
 
+/** An unknown vessel or port id is the caller's mistake (4xx naming the field), not a 500. */
+function assertRefs(input: CruiseInput) {
+	if (
+		input.vesselId &&
+		!db.select({ id: vessel.id }).from(vessel).where(eq(vessel.id, input.vesselId)).get()
+	)
+		throw new DomainError('Choose a vessel from the list.', 'vesselId', 422);
+	for (const f of ['departurePortId', 'returnPortId'] as const) {
+		const id = input[f];
+		if (id && !db.select({ id: port.id }).from(port).where(eq(port.id, id)).get())
+			throw new DomainError('Choose a port from the list.', f, 422);
+	}
+}
+
 /** Creates a cruise; its creator becomes its chief scientist. */
 export function create(creatorId: string, input: CruiseInput): string {
 	assertCodeFree(input.code);
+	assertRefs(input);
 	const id = newId();
 	db.transaction((tx) => {
 		tx.insert(cruise)
@@ -120,6 +135,7 @@ export function create(creatorId: string, input: CruiseInput): string {
 
 export function update(userId: string, cruiseId: string, input: CruiseInput) {
 	assertCodeFree(input.code, cruiseId);
+	assertRefs(input);
 	db.transaction((tx) => {
 		tx.update(cruise)
 			.set({ ...values(input), updatedAt: new Date() })

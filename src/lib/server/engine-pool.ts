@@ -82,6 +82,11 @@ export async function run<K extends TaskName>(
 	}
 }
 
+/** Starts the pool ahead of the first heavy request (server start), so no request pays for it. */
+export async function warm(): Promise<void> {
+	await thePool();
+}
+
 /** Threads and queue, for the admin and for tests. */
 export function stats() {
 	return pool
