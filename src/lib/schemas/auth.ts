@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './messages';
 
 export const signInSchema = z.object({
 	email: z.email('Enter the e-mail address of your account.').trim().toLowerCase(),

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './messages';
 
 const DEPTH_MODELS = ['stein-stein-1992', 'parsons-sclater-1977', 'half-space'] as const;
 const STATUSES = ['draft', 'planned', 'published', 'at_sea', 'completed'] as const;
@@ -17,30 +17,26 @@ export const cruiseSchema = z
 		code: z
 			.string()
 			.trim()
-			.min(2, 'The code needs at least 2 characters.')
-			.max(20, 'Keep the code to 20 characters.')
-			.regex(/^[A-Za-z0-9][A-Za-z0-9._-]*$/, 'Use letters, digits, dots, dashes or underscores.'),
-		title: z.string().trim().min(3, 'Give the cruise a title.').max(200),
+			.min(2)
+			.max(20)
+			.regex(
+				/^[A-Za-z0-9][A-Za-z0-9._-]*$/,
+				'Cruise code: letters, digits, dots, dashes or underscores, starting with a letter or digit.'
+			),
+		title: z.string().trim().min(3).max(200),
 		status: z.enum(STATUSES).default('draft'),
 		vesselId: z.string().default(''),
 		departurePortId: z.string().default(''),
 		returnPortId: z.string().default(''),
 		departureAt: utcDateTime,
 		returnAt: utcDateTime,
-		allocatedDays: z
-			.number({ message: 'Enter a number of days.' })
-			.min(0, 'Days cannot be negative.')
-			.max(400, 'More than 400 days is not a cruise.')
-			.default(0),
-		weatherMarginPct: z
-			.number({ message: 'Enter a percentage.' })
-			.min(0, 'The margin cannot be negative.')
-			.max(100, 'The margin is at most 100 %.')
-			.default(10),
+		// Ship time granted; at least one day (a cruise of no days cannot be planned or billed).
+		allocatedDays: z.number().min(1).max(400).default(1),
+		weatherMarginPct: z.number().min(0).max(100).default(10),
 		depthModel: z.enum(DEPTH_MODELS).default('stein-stein-1992')
 	})
 	.refine((c) => !c.departureAt || !c.returnAt || toUtc(c.returnAt)! > toUtc(c.departureAt)!, {
-		message: 'The return must come after the departure.',
+		message: 'Return: must come after the departure.',
 		path: ['returnAt']
 	});
 

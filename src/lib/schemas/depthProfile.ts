@@ -2,7 +2,7 @@
 // WGS84 degrees; longitudes must lie within ±180 (the engine normalises them to [−180, 180) in its
 // answers). The sample-count limit (≤ 200 000) needs the line's geodesic length, so the engine
 // checks it and throws EngineInputError { field: 'spacingKm' }.
-import { z } from 'zod';
+import { z } from './messages';
 import { DEPTH_MODEL_IDS, type DepthModelId } from '$lib/engine/depth';
 import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
 

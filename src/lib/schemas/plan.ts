@@ -1,6 +1,6 @@
 // Plan features as the API takes them: GeoJSON geometry (WGS84, [lon, lat]) plus settings per kind.
 // Coordinates are checked here so that a bad position is refused with its place named.
-import { z } from 'zod';
+import { z } from './messages';
 import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
 import { lonLatPosition } from './depthProfile';
 

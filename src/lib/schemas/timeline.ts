@@ -1,5 +1,5 @@
 // Zod schemas for the timeline, clearances and checklist forms and the order API.
-import { z } from 'zod';
+import { z } from './messages';
 import { toUtc } from './cruise';
 
 export const orderSchema = z.object({

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './messages';
 
 const positive = (what: string) =>
 	z.number({ message: `Enter ${what}.` }).positive(`${what} must be above 0.`);

@@ -4,5 +4,5 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = (event) => {
 	const user = guards.requireUser(event);
-	return { cruises: cruises.listFor(user), canCreate: true };
+	return { cruises: cruises.listFor(user), canCreate: guards.canCreateCruise(user) };
 };

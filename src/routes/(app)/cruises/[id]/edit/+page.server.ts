@@ -38,7 +38,8 @@ export const actions: Actions = {
 		try {
 			cruises.update(user.id, c.id, form.data);
 		} catch (e) {
-			if (e instanceof DomainError) return setError(form, (e.field ?? '') as 'code', e.message);
+			if (e instanceof DomainError)
+				return setError(form, (e.field ?? '') as 'code', e.message, { status: 409 });
 			throw e;
 		}
 		return message(form, { type: 'ok', text: 'Saved.' });
