@@ -55,3 +55,9 @@ export const siteInviteSchema = z.object({
 	email: z.email('Enter an e-mail address.').trim().toLowerCase(),
 	role: z.enum(['admin', 'member']).default('member')
 });
+
+/** The marine office allows a member to create and lead cruises, or stops it. */
+export const leadFlagSchema = z.object({
+	userId: z.string().min(1),
+	allowed: z.boolean().default(false)
+});

@@ -60,3 +60,8 @@ export const memberRoleSchema = z.object({
 	userId: z.string().min(1),
 	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master'])
 });
+
+/** Deleting a cruise: the code typed again, as the confirmation. */
+export const deleteCruiseSchema = z.object({
+	confirmCode: z.string().trim().min(1, 'Type the cruise code to confirm.').max(20)
+});
