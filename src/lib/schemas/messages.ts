@@ -73,7 +73,6 @@ const UNITS: [RegExp, string][] = [
 	[/Deg$/, '°'],
 	[/Km$/, 'km'],
 	[/Nm$/, 'nm'],
-	[/Days$/, 'days'],
 	[/H$/, 'hours'],
 	[/C$/, '°C'],
 	[/M$/, 'm']
@@ -96,7 +95,7 @@ export function labelFor(key: string): string {
 		.toLowerCase()
 		.trim();
 	const plain = words.charAt(0).toUpperCase() + words.slice(1);
-	return unit && !(unit === 'days' && /days?$/.test(words)) ? `${plain} (${unit})` : plain;
+	return unit ? `${plain} (${unit})` : plain;
 }
 
 /** The field an issue is about, in plain words: its last named key, and the item if in a list. */
