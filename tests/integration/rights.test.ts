@@ -166,6 +166,12 @@ describe('plain errors at the field, nothing saved', () => {
 		const res = await post('/cruises/new', 'chief', newCruise({ code: 'mt27-03' }));
 		expect(res.status).toBe(409);
 		expect(fieldError(await res.text(), 'code')).toMatch(/^Cruise code: MT27-03 is taken/);
+		// Said at once, beside any other problem of the same submission.
+		const both = await (
+			await post('/cruises/new', 'chief', newCruise({ code: 'Mt27-03', allocatedDays: '0' }))
+		).text();
+		expect(fieldError(both, 'code')).toMatch(/^Cruise code: MT27-03 is taken/);
+		expect(fieldError(both, 'allocatedDays')).toBe('Allocated days: at least 1.');
 		expect(cruiseCount()).toBe(before);
 
 		const edit = await post(`/cruises/${demoId}/edit?/save`, 'admin', {

@@ -108,21 +108,27 @@ function values(input: CruiseInput) {
 // Codes are unique regardless of case (the index cruise_code_ci_idx holds it in the database too).
 const sameCode = (code: string) => sql`lower(${cruise.code}) = lower(${code})`;
 
+const takenMessage = (code: string) =>
+	`Cruise code: ${code} is taken — another cruise uses it (capitals and small letters count as the same).`;
+
 function codeTaken(code: string): never {
-	throw new DomainError(
-		`Cruise code: ${code} is taken — another cruise uses it (capitals and small letters count as the same).`,
-		'code',
-		409
-	);
+	throw new DomainError(takenMessage(code), 'code', 409);
 }
 
-function assertCodeFree(code: string, exceptId?: string) {
+/** The plain message when another cruise holds this code in any case, else null. */
+export function codeClash(code: string, exceptId?: string): string | null {
+	if (!code) return null;
 	const clash = db
 		.select({ id: cruise.id, code: cruise.code })
 		.from(cruise)
 		.where(exceptId ? and(sameCode(code), ne(cruise.id, exceptId)) : sameCode(code))
 		.get();
-	if (clash) codeTaken(clash.code);
+	return clash ? takenMessage(clash.code) : null;
+}
+
+function assertCodeFree(code: string, exceptId?: string) {
+	const clash = codeClash(code, exceptId);
+	if (clash) throw new DomainError(clash, 'code', 409);
 }
 
 /** Two requests racing past assertCodeFree meet the unique index; answer them the same way. */

@@ -21,6 +21,9 @@ export const actions: Actions = {
 	default: async (event) => {
 		const user = guards.requireCruiseCreator(event);
 		const form = await superValidate(event.request, zod4(cruiseSchema));
+		// A taken code is said at once, beside any other problem, not only after the rest is right.
+		const clash = cruises.codeClash(String(form.data.code ?? '').trim());
+		if (clash) return setError(form, 'code', clash, { status: 409 });
 		if (!form.valid) return fail(400, { form });
 		let id: string;
 		try {

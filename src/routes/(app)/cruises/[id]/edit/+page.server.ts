@@ -40,6 +40,8 @@ export const actions: Actions = {
 	save: async (event) => {
 		const { user, cruise: c } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 		const form = await superValidate(event.request, zod4(cruiseSchema));
+		const clash = cruises.codeClash(String(form.data.code ?? '').trim(), c.id);
+		if (clash) return setError(form, 'code', clash, { status: 409 });
 		if (!form.valid) return fail(400, { form });
 		try {
 			cruises.update(user.id, c.id, form.data);
