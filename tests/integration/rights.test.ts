@@ -188,6 +188,32 @@ describe('plain errors at the field, nothing saved', () => {
 		).toThrow(/UNIQUE/);
 	});
 
+	it('the vessel form: limits read from the schema, plain messages, nothing saved', async () => {
+		const page = await (await get('/admin/vessels/new', 'admin')).text();
+		expect(page).toMatch(/<input[^>]*id="transitSpeedKn"[^>]*min="0"/);
+		expect(page).toMatch(/<input[^>]*id="scienceBerths"[^>]*min="1"[^>]*max="200"/);
+		expect(page).toMatch(/<input[^>]*id="name"[^>]*maxlength="120"/);
+		const res = await post('/admin/vessels/new', 'admin', {
+			name: 'RV Long Test',
+			callSign: 'XTEST1',
+			scienceBerths: '0',
+			transitSpeedKn: '10',
+			surveySpeedKn: '8',
+			dayRate: '1000',
+			currency: 'EUR',
+			swathAngleDeg: '130',
+			swathDepthFactor: '4',
+			winchSpeedMPerMin: '60',
+			enduranceDays: '5000'
+		});
+		expect(res.status).toBe(400);
+		const html = await res.text();
+		expect(fieldError(html, 'scienceBerths')).toBe('At least one berth.');
+		expect(fieldError(html, 'enduranceDays')).toMatch(/^Endurance \(days\): at most \d+\.$/);
+		expect(html).not.toMatch(/Too big|Too small/);
+		expect(html).not.toContain('RV Long Test</td>');
+	});
+
 	it('the API’s 422 details carry the same plain messages', async () => {
 		const res = await fetch(`${srv.url}/api/v1/cruises/${demoId}/plan/features`, {
 			method: 'POST',
