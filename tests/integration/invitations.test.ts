@@ -136,12 +136,18 @@ describe('site invitations', () => {
 			role: 'member'
 		});
 		expect(JSON.stringify(await dup.json())).toContain('already has an open invitation');
-		const existing = await post('/admin/users?/invite', admin, { email: DEMO.chief, role: 'member' });
+		const existing = await post('/admin/users?/invite', admin, {
+			email: DEMO.chief,
+			role: 'member'
+		});
 		expect(JSON.stringify(await existing.json())).toContain('already has an account');
 	});
 
 	it('a member cannot invite to the site', async () => {
-		const res = await post('/admin/users?/invite', chief, { email: 'x@example.org', role: 'admin' });
+		const res = await post('/admin/users?/invite', chief, {
+			email: 'x@example.org',
+			role: 'admin'
+		});
 		expect(res.status).toBe(403);
 	});
 });
