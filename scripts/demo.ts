@@ -24,7 +24,8 @@ export const DEMO_USERS = [
 		email: 'chief@example.org',
 		name: 'Dr Tove Achterberg',
 		role: 'member',
-		what: 'chief scientist'
+		what: 'chief scientist',
+		canLeadCruises: true
 	},
 	{ email: 'participant@example.org', name: 'Rafael Quenby', role: 'member', what: 'participant' },
 	{ email: 'agent@example.org', name: 'Sunniva Okoro', role: 'member', what: 'port agent' },
@@ -78,10 +79,26 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	db.transaction((tx) => {
 		for (const u of DEMO_USERS)
 			tx.insert(t.user)
-				.values({ id: ids[u.email], email: u.email, name: u.name, role: u.role, passwordHash })
+				.values({
+					id: ids[u.email],
+					email: u.email,
+					name: u.name,
+					role: u.role,
+					canLeadCruises: 'canLeadCruises' in u && u.canLeadCruises,
+					passwordHash
+				})
 				.run();
+		// party[0] leads the second demo cruise, so the marine office has let them lead cruises.
 		for (const p of party)
-			tx.insert(t.user).values({ id: p.id, email: p.email, name: p.name, passwordHash }).run();
+			tx.insert(t.user)
+				.values({
+					id: p.id,
+					email: p.email,
+					name: p.name,
+					canLeadCruises: p === party[0],
+					passwordHash
+				})
+				.run();
 
 		const vesselId = newId();
 		tx.insert(t.vessel)

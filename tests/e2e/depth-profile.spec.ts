@@ -21,6 +21,6 @@ test('a bad position is refused with the row named, and nothing is lost', async 
 	await page.goto('/tools/depth-profile');
 	await page.getByLabel('Line positions').fill('30°00.0′S 146°45.0′W\n95°00.0′S 145°15.0′W');
 	await page.getByRole('button', { name: 'Predict depths' }).click();
-	await expect(page.getByRole('alert')).toContainText('row 2');
+	await expect(page.locator('#line-error')).toContainText('row 2');
 	await expect(page.getByLabel('Line positions')).toHaveValue(/95°00.0′S/);
 });

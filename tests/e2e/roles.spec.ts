@@ -35,7 +35,7 @@ test('the chief scientist runs the demo cruise: settings and invitations', async
 	await page.getByRole('link', { name: 'Settings' }).click();
 	await page.getByLabel('Allocated days').fill('-3');
 	await page.getByRole('button', { name: 'Save' }).click();
-	await expect(page.getByText('Days cannot be negative.')).toBeVisible();
+	await expect(page.locator('#allocatedDays-error')).toHaveText('Allocated days: at least 1.');
 	await page.getByLabel('Allocated days').fill('29');
 	await page.getByRole('button', { name: 'Save' }).click();
 	await expect(page.getByText('Saved.')).toBeVisible();

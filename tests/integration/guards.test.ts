@@ -166,6 +166,23 @@ describe('every route refuses callers without authority (HTTP)', () => {
 		}
 	});
 
+	it('a member the marine office has not allowed to lead cruises may not create one', async () => {
+		const participant = (await signIn(srv.url, DEMO.participant, DEMO.password, '10.0.0.77'))
+			.cookie!;
+		const page = await fetch(srv.url + '/cruises/new', {
+			redirect: 'manual',
+			headers: { cookie: participant }
+		});
+		expect(page.status).toBe(403);
+		const post = await formPost(
+			srv.url,
+			'/cruises/new',
+			{ code: 'NOPE-1', title: 'Not allowed', allocatedDays: '3' },
+			{ cookie: participant }
+		);
+		expect(post.status).toBe(403);
+	});
+
 	it('a member who is not an admin is refused every admin page and action', async () => {
 		for (const f of pages().filter((x) => x.route.startsWith('/admin'))) {
 			const url = srv.url + concrete(f.route);

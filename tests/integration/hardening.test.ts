@@ -252,7 +252,7 @@ describe('no value may explode a computation: the tiny speed is refused at every
 			{ cookie: cookie! }
 		);
 		expect(res.status).toBe(400);
-		expect(await res.text()).toContain('The survey speed must be within 1–20 kn');
+		expect(await res.text()).toContain('Survey speed (kn): at least 1.');
 	});
 });
 

@@ -126,22 +126,28 @@ describe('invitations to a cruise', () => {
 
 describe('site invitations', () => {
 	it('an admin invites to the site; a duplicate or an existing account is refused', async () => {
-		const ok = await post('/admin/users', admin, {
+		const ok = await post('/admin/users?/invite', admin, {
 			email: 'office.two@example.org',
 			role: 'member'
 		});
 		expect((await ok.json()).type).toBe('success');
-		const dup = await post('/admin/users', admin, {
+		const dup = await post('/admin/users?/invite', admin, {
 			email: 'office.two@example.org',
 			role: 'member'
 		});
 		expect(JSON.stringify(await dup.json())).toContain('already has an open invitation');
-		const existing = await post('/admin/users', admin, { email: DEMO.chief, role: 'member' });
+		const existing = await post('/admin/users?/invite', admin, {
+			email: DEMO.chief,
+			role: 'member'
+		});
 		expect(JSON.stringify(await existing.json())).toContain('already has an account');
 	});
 
 	it('a member cannot invite to the site', async () => {
-		const res = await post('/admin/users', chief, { email: 'x@example.org', role: 'admin' });
+		const res = await post('/admin/users?/invite', chief, {
+			email: 'x@example.org',
+			role: 'admin'
+		});
 		expect(res.status).toBe(403);
 	});
 });

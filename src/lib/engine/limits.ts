@@ -32,7 +32,7 @@ export const LIMITS = {
 	dayRate: { min: 0, max: 10_000_000, unit: '' },
 	enduranceDays: { min: 1, max: 365, unit: 'days' },
 	scienceBerths: { min: 1, max: 200, unit: 'berths' },
-	allocatedDays: { min: 0, max: 400, unit: 'days' },
+	allocatedDays: { min: 1, max: 400, unit: 'days' },
 	/** A station's own settings (durations in h, heights in m, speeds in m/min): none beyond this. */
 	stationParam: { min: 0, max: 12_000, unit: '' },
 	turnH: { min: 0, max: 24, unit: 'h' },

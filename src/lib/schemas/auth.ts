@@ -1,7 +1,7 @@
-import { z } from 'zod';
+import { z } from './messages';
 
 export const signInSchema = z.object({
-	email: z.email('Enter the e-mail address of your account.').trim().toLowerCase(),
+	email: z.email('Enter the e-mail address of your account.').max(254).trim().toLowerCase(),
 	password: z.string().min(1, 'Enter your password.')
 });
 
@@ -29,7 +29,7 @@ export const acceptInvitationSchema = z
 	});
 
 export const resetRequestSchema = z.object({
-	email: z.email('Enter an e-mail address.').trim().toLowerCase()
+	email: z.email('Enter an e-mail address.').max(254).trim().toLowerCase()
 });
 
 export const changePasswordSchema = z
@@ -52,6 +52,12 @@ export const tokenSchema = z.object({
 });
 
 export const siteInviteSchema = z.object({
-	email: z.email('Enter an e-mail address.').trim().toLowerCase(),
+	email: z.email('Enter an e-mail address.').max(254).trim().toLowerCase(),
 	role: z.enum(['admin', 'member']).default('member')
+});
+
+/** The marine office allows a member to create and lead cruises, or stops it. */
+export const leadFlagSchema = z.object({
+	userId: z.string().min(1),
+	allowed: z.boolean().default(false)
 });

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './messages';
 import { SIZES } from '$lib/engine/limits';
 import { bounded } from './limits';
 
@@ -19,22 +19,26 @@ export const cruiseSchema = z
 		code: z
 			.string()
 			.trim()
-			.min(2, 'The code needs at least 2 characters.')
-			.max(20, 'Keep the code to 20 characters.')
-			.regex(/^[A-Za-z0-9][A-Za-z0-9._-]*$/, 'Use letters, digits, dots, dashes or underscores.'),
-		title: z.string().trim().min(3, 'Give the cruise a title.').max(200),
+			.min(2)
+			.max(20)
+			.regex(
+				/^[A-Za-z0-9][A-Za-z0-9._-]*$/,
+				'Cruise code: letters, digits, dots, dashes or underscores, starting with a letter or digit.'
+			),
+		title: z.string().trim().min(3).max(200),
 		status: z.enum(STATUSES).default('draft'),
 		vesselId: z.string().default(''),
 		departurePortId: z.string().default(''),
 		returnPortId: z.string().default(''),
 		departureAt: utcDateTime,
 		returnAt: utcDateTime,
-		allocatedDays: bounded('allocatedDays', 'Allocated days').default(0),
-		weatherMarginPct: bounded('weatherMarginPct', 'The weather margin').default(10),
+		// Ship time granted; at least one day (a cruise of no days cannot be planned or billed).
+		allocatedDays: bounded('allocatedDays').default(1),
+		weatherMarginPct: bounded('weatherMarginPct').default(10),
 		depthModel: z.enum(DEPTH_MODELS).default('stein-stein-1992')
 	})
 	.refine((c) => !c.departureAt || !c.returnAt || toUtc(c.returnAt)! > toUtc(c.departureAt)!, {
-		message: 'The return must come after the departure.',
+		message: 'Return: must come after the departure.',
 		path: ['returnAt']
 	})
 	.refine(
@@ -66,11 +70,16 @@ export function toLocalInput(d: Date | null | undefined): string {
 }
 
 export const memberInviteSchema = z.object({
-	email: z.email('Enter an e-mail address.').trim().toLowerCase(),
+	email: z.email('Enter an e-mail address.').max(254).trim().toLowerCase(),
 	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master']).default('participant')
 });
 
 export const memberRoleSchema = z.object({
 	userId: z.string().min(1),
 	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master'])
+});
+
+/** Deleting a cruise: the code typed again, as the confirmation. */
+export const deleteCruiseSchema = z.object({
+	confirmCode: z.string().trim().min(1, 'Type the cruise code to confirm.').max(20)
 });

@@ -2,7 +2,7 @@
 // WGS84 degrees; longitudes must lie within ±180 (the engine normalises them to [−180, 180) in its
 // answers). The sample-count limit (SIZES.profileSamples) needs the line's geodesic length, so the engine
 // checks it and throws EngineInputError { field: 'spacingKm' }.
-import { z } from 'zod';
+import { z } from './messages';
 import { DEPTH_MODEL_IDS, type DepthModelId } from '$lib/engine/depth';
 import { axisProblem, SIZES } from '$lib/engine/limits';
 import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
@@ -57,7 +57,7 @@ export const depthProfileRequestSchema = z.object({
 					});
 			})
 		}),
-		fullRateMmYr: bounded('fullRateMmYr', 'the full spreading rate'),
+		fullRateMmYr: bounded('fullRateMmYr'),
 		asymmetry: z
 			.number({ error: 'must be a finite number' })
 			.min(0, 'asymmetry is the left flank share, 0..1')
@@ -71,15 +71,15 @@ export const depthProfileRequestSchema = z.object({
 				`potential temperature must be at most ${MAX_POTENTIAL_TEMPERATURE_C} °C (melting models' range)`
 			)
 			.optional(),
-		axialDepthM: bounded('axialDepthM', 'the axial depth (positive down)').optional()
+		axialDepthM: bounded('axialDepthM').optional()
 	}),
 	model: z
 		.enum(DEPTH_MODEL_IDS as [DepthModelId, ...DepthModelId[]], {
 			error: `model must be one of ${DEPTH_MODEL_IDS.join(', ')}`
 		})
 		.optional(),
-	spacingKm: bounded('spacingKm', 'the spacing').optional(),
-	swathAngleDeg: bounded('swathAngleDeg', 'the swath angle').optional()
+	spacingKm: bounded('spacingKm').optional(),
+	swathAngleDeg: bounded('swathAngleDeg').optional()
 });
 
 export type DepthProfileRequest = z.infer<typeof depthProfileRequestSchema>;

@@ -1,6 +1,6 @@
 // Plan features as the API takes them: GeoJSON geometry (WGS84, [lon, lat]) plus settings per kind.
 // Coordinates are checked here so that a bad position is refused with its place named.
-import { z } from 'zod';
+import { z } from './messages';
 import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
 import { axisProblem, SIZES } from '$lib/engine/limits';
 import { lonLatPosition } from './depthProfile';
@@ -79,7 +79,7 @@ export const stationProps = z.object({
 	params: z
 		.record(
 			z.string().max(40),
-			z.union([bounded('stationParam', 'a station setting'), z.string().max(80)])
+			z.union([bounded('stationParam'), z.string().max(80)])
 		)
 		.refine(
 			(p) => Object.keys(p).length <= SIZES.stationParams,

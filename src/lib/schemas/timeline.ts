@@ -1,5 +1,5 @@
 // Zod schemas for the timeline, clearances and checklist forms and the order API.
-import { z } from 'zod';
+import { z } from './messages';
 import { SIZES } from '$lib/engine/limits';
 import { validInstant } from './cruise';
 import { bounded } from './limits';
@@ -11,12 +11,12 @@ export const orderSchema = z.object({
 });
 
 export const timingSchema = z.object({
-	turnH: bounded('turnH', 'The turn time').default(0.5),
-	mobilisationH: bounded('mobilisationH', 'Mobilisation').default(24),
-	demobilisationH: bounded('mobilisationH', 'Demobilisation').default(12),
+	turnH: bounded('turnH').default(0.5),
+	mobilisationH: bounded('mobilisationH').default(24),
+	demobilisationH: bounded('mobilisationH').default(12),
 	marginMode: z.enum(['pct', 'days']).default('pct'),
-	weatherMarginPct: bounded('weatherMarginPct', 'The weather margin').default(10),
-	weatherMarginDays: bounded('weatherMarginDays', 'The weather margin').default(0)
+	weatherMarginPct: bounded('weatherMarginPct').default(10),
+	weatherMarginDays: bounded('weatherMarginDays').default(0)
 });
 
 const utcInstant = z.string().trim().refine(validInstant, {
@@ -40,7 +40,7 @@ export const addItemSchema = z.object({
 
 export const portCallSchema = z.object({
 	portId: z.string().min(1, 'Choose a port.'),
-	hours: bounded('portCallH', 'Hours alongside').default(36)
+	hours: bounded('portCallH').default(36)
 });
 
 export const idSchema = z.object({ id: z.string().min(1) });

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from './messages';
 import { bounded } from './limits';
 
 export const vesselSchema = z.object({
@@ -8,18 +8,18 @@ export const vesselSchema = z.object({
 		.trim()
 		.toUpperCase()
 		.regex(/^[A-Z0-9]{3,9}$/, 'A call sign is 3–9 letters and digits.'),
-	scienceBerths: bounded('scienceBerths', 'Science berths').int('Berths are whole people.'),
-	transitSpeedKn: bounded('transitSpeedKn', 'The transit speed'),
-	surveySpeedKn: bounded('surveySpeedKn', 'The survey speed'),
-	dayRate: bounded('dayRate', 'The day rate'),
+	scienceBerths: bounded('scienceBerths').int('Berths are whole people.'),
+	transitSpeedKn: bounded('transitSpeedKn'),
+	surveySpeedKn: bounded('surveySpeedKn'),
+	dayRate: bounded('dayRate'),
 	currency: z
 		.string()
 		.trim()
 		.toUpperCase()
 		.regex(/^[A-Z]{3}$/, 'Use a three-letter currency code, e.g. EUR.'),
-	swathAngleDeg: bounded('swathAngleDeg', 'The swath angle'),
-	swathDepthFactor: bounded('swathDepthFactor', 'The swath depth factor').default(4),
-	winchSpeedMPerMin: bounded('winchSpeedMPerMin', 'The winch speed'),
-	enduranceDays: bounded('enduranceDays', 'Endurance').int('Whole days.')
+	swathAngleDeg: bounded('swathAngleDeg'),
+	swathDepthFactor: bounded('swathDepthFactor').default(4),
+	winchSpeedMPerMin: bounded('winchSpeedMPerMin'),
+	enduranceDays: bounded('enduranceDays').int('Whole days.')
 });
 export type VesselInput = z.infer<typeof vesselSchema>;

@@ -17,6 +17,8 @@ export interface SessionUser {
 	email: string;
 	name: string;
 	role: GlobalRole;
+	/** Marked by the marine office as allowed to create and lead cruises (admins always are). */
+	canLeadCruises: boolean;
 }
 export interface SessionInfo {
 	id: string;
@@ -40,7 +42,13 @@ export async function verifyPassword(passwordHash: string, password: string): Pr
 	}
 }
 
-const userColumns = { id: user.id, email: user.email, name: user.name, role: user.role };
+const userColumns = {
+	id: user.id,
+	email: user.email,
+	name: user.name,
+	role: user.role,
+	canLeadCruises: user.canLeadCruises
+};
 
 export function createSession(db: Db, userId: string) {
 	const token = newSecret();

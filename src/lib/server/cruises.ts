@@ -1,15 +1,27 @@
 // Cruises, their members and legs.
-import { and, asc, eq, inArray, ne } from 'drizzle-orm';
+import { and, asc, count, eq, inArray, ne, sql } from 'drizzle-orm';
+import { rmSync } from 'node:fs';
+import { join } from 'node:path';
+import type { SQLiteColumn, SQLiteTable } from 'drizzle-orm/sqlite-core';
 import { toUtc, type CruiseInput } from '$lib/schemas/cruise';
 import { audit } from './audit';
 import { config } from './config';
 import { db } from './db';
 import {
+	berthApplication,
+	clearance,
 	cruise,
 	cruiseMember,
+	deadline,
+	document,
 	invitation,
+	invoice,
 	leg,
 	port,
+	ridgeSegment,
+	station,
+	surveyArea,
+	surveyLine,
 	user,
 	vessel,
 	type Cruise,
@@ -93,13 +105,42 @@ function values(input: CruiseInput) {
 	};
 }
 
-function assertCodeFree(code: string, exceptId?: string) {
+// Codes are unique regardless of case (the index cruise_code_ci_idx holds it in the database too).
+const sameCode = (code: string) => sql`lower(${cruise.code}) = lower(${code})`;
+
+const takenMessage = (code: string) =>
+	`Cruise code: ${code} is taken — another cruise uses it (capitals and small letters count as the same).`;
+
+function codeTaken(code: string): never {
+	throw new DomainError(takenMessage(code), 'code', 409);
+}
+
+/** The plain message when another cruise holds this code in any case, else null. */
+export function codeClash(code: string, exceptId?: string): string | null {
+	if (!code) return null;
 	const clash = db
-		.select({ id: cruise.id })
+		.select({ id: cruise.id, code: cruise.code })
 		.from(cruise)
-		.where(exceptId ? and(eq(cruise.code, code), ne(cruise.id, exceptId)) : eq(cruise.code, code))
+		.where(exceptId ? and(sameCode(code), ne(cruise.id, exceptId)) : sameCode(code))
 		.get();
-	if (clash) throw new DomainError(`Another cruise already uses the code ${code}.`, 'code', 409);
+	return clash ? takenMessage(clash.code) : null;
+}
+
+function assertCodeFree(code: string, exceptId?: string) {
+	const clash = codeClash(code, exceptId);
+	if (clash) throw new DomainError(clash, 'code', 409);
+}
+
+/** Two requests racing past assertCodeFree meet the unique index; answer them the same way. */
+function onCodeClash<T>(code: string, write: () => T): T {
+	try {
+		return write();
+	} catch (e) {
+		const err = e as { code?: string; message?: string };
+		if (err.code === 'SQLITE_CONSTRAINT_UNIQUE' && /cruise/.test(err.message ?? ''))
+			codeTaken(code);
+		throw e;
+	}
 }
 
 /** An unknown vessel or port id is the caller's mistake (4xx naming the field), not a 500. */
@@ -121,38 +162,64 @@ export function create(creatorId: string, input: CruiseInput): string {
 	assertCodeFree(input.code);
 	assertRefs(input);
 	const id = newId();
-	db.transaction((tx) => {
-		tx.insert(cruise)
-			.values({ id, ...values(input), createdById: creatorId })
-			.run();
-		tx.insert(cruiseMember)
-			.values({ cruiseId: id, userId: creatorId, role: 'chief_scientist' })
-			.run();
-		audit(tx, { userId: creatorId, cruiseId: id, action: 'cruise.created' });
-	});
+	onCodeClash(input.code, () =>
+		db.transaction((tx) => {
+			tx.insert(cruise)
+				.values({ id, ...values(input), createdById: creatorId })
+				.run();
+			tx.insert(cruiseMember)
+				.values({ cruiseId: id, userId: creatorId, role: 'chief_scientist' })
+				.run();
+			audit(tx, { userId: creatorId, cruiseId: id, action: 'cruise.created' });
+		})
+	);
 	return id;
 }
 
 export function update(userId: string, cruiseId: string, input: CruiseInput) {
 	assertCodeFree(input.code, cruiseId);
 	assertRefs(input);
-	db.transaction((tx) => {
-		tx.update(cruise)
-			.set({ ...values(input), updatedAt: new Date() })
-			.where(eq(cruise.id, cruiseId))
-			.run();
-		audit(tx, { userId, cruiseId, action: 'cruise.updated' });
-	});
+	onCodeClash(input.code, () =>
+		db.transaction((tx) => {
+			tx.update(cruise)
+				.set({ ...values(input), updatedAt: new Date() })
+				.where(eq(cruise.id, cruiseId))
+				.run();
+			audit(tx, { userId, cruiseId, action: 'cruise.updated' });
+		})
+	);
 }
 
-export function members(cruiseId: string) {
-	return db
+/**
+ * Who may see the e-mail addresses of the people on a cruise: its chief scientist and master, and
+ * the marine office. Participants and port agents see names and cruise roles only.
+ */
+export function seesEmails(access: { role: CruiseRole | null; isAdmin: boolean }): boolean {
+	return access.isAdmin || access.role === 'chief_scientist' || access.role === 'master';
+}
+
+export interface Member {
+	userId: string;
+	name: string;
+	role: CruiseRole;
+	/** Only for callers who see e-mail addresses (see seesEmails); absent otherwise. */
+	email?: string;
+}
+
+/** The people on a cruise as `access` may see them: e-mail addresses only where seesEmails. */
+export function members(
+	cruiseId: string,
+	access: { role: CruiseRole | null; isAdmin: boolean }
+): Member[] {
+	const rows = db
 		.select({ userId: user.id, name: user.name, email: user.email, role: cruiseMember.role })
 		.from(cruiseMember)
 		.innerJoin(user, eq(cruiseMember.userId, user.id))
 		.where(eq(cruiseMember.cruiseId, cruiseId))
 		.orderBy(asc(cruiseMember.role), asc(user.name))
 		.all();
+	if (seesEmails(access)) return rows;
+	return rows.map(({ email: _hidden, ...rest }) => rest);
 }
 
 export function pendingInvitations(cruiseId: string) {
@@ -344,4 +411,107 @@ export function toApi(d: NonNullable<ReturnType<typeof detail>>, role: CruiseRol
 			endAt: l.endAt?.toISOString() ?? null
 		}))
 	};
+}
+
+/** What deleting a cruise takes with it, counted for the confirmation. */
+export interface DeleteImpact {
+	legs: number;
+	lines: number;
+	stations: number;
+	areas: number;
+	ridges: number;
+	members: number;
+	applications: number;
+	documents: number;
+	invoices: number;
+	clearances: number;
+	deadlines: number;
+}
+
+function countOf(table: SQLiteTable & { cruiseId: SQLiteColumn }, cruiseId: string): number {
+	return (
+		db
+			.select({ n: count() })
+			.from(table as SQLiteTable)
+			.where(eq(table.cruiseId, cruiseId))
+			.get()?.n ?? 0
+	);
+}
+
+/**
+ * Uploads are stored by content hash under UPLOAD_DIR (README); a file goes when the last document
+ * naming it does. A missing file is not an error (it may never have been written).
+ */
+function discardUpload(sha256: string) {
+	if (!/^[0-9a-f]{64}$/.test(sha256)) return;
+	rmSync(join(config.uploadDir, sha256), { force: true });
+}
+
+export function deleteImpact(cruiseId: string): DeleteImpact {
+	return {
+		legs: countOf(leg, cruiseId),
+		lines: countOf(surveyLine, cruiseId),
+		stations: countOf(station, cruiseId),
+		areas: countOf(surveyArea, cruiseId),
+		ridges: countOf(ridgeSegment, cruiseId),
+		members: countOf(cruiseMember, cruiseId),
+		applications: countOf(berthApplication, cruiseId),
+		documents: countOf(document, cruiseId),
+		invoices: countOf(invoice, cruiseId),
+		clearances: countOf(clearance, cruiseId),
+		deadlines: countOf(deadline, cruiseId)
+	};
+}
+
+/**
+ * Who may delete a cruise: the marine office any cruise; its chief scientist only while it is a
+ * draft (a planned or published cruise has a ship, a port agent and people counting on it).
+ */
+export function canDelete(access: {
+	role: CruiseRole | null;
+	isAdmin: boolean;
+	cruise: Pick<Cruise, 'status'>;
+}): boolean {
+	return access.isAdmin || (access.role === 'chief_scientist' && access.cruise.status === 'draft');
+}
+
+/**
+ * Deletes a cruise and, through the foreign keys' ON DELETE CASCADE, its legs, plan, people's
+ * roles, applications, documents, invoices and payments, clearances, deadlines and audit entries.
+ * The deletion itself is audited without a cruise id, so the record outlives the cruise. Uploaded
+ * files no other document refers to are removed after the commit. Returns what went with it.
+ */
+export function remove(
+	actorId: string,
+	c: Pick<Cruise, 'id' | 'code' | 'title'>
+): { impact: DeleteImpact; orphanedUploads: string[] } {
+	const impact = deleteImpact(c.id);
+	const hashes = db
+		.selectDistinct({ sha256: document.sha256 })
+		.from(document)
+		.where(eq(document.cruiseId, c.id))
+		.all()
+		.map((d) => d.sha256);
+	db.transaction((tx) => {
+		tx.delete(cruise).where(eq(cruise.id, c.id)).run();
+		audit(tx, {
+			userId: actorId,
+			cruiseId: null,
+			action: 'cruise.deleted',
+			detail: { cruiseId: c.id, code: c.code, title: c.title, ...impact }
+		});
+	});
+	const stillUsed = new Set(
+		hashes.length
+			? db
+					.selectDistinct({ sha256: document.sha256 })
+					.from(document)
+					.where(inArray(document.sha256, hashes))
+					.all()
+					.map((d) => d.sha256)
+			: []
+	);
+	const orphanedUploads = hashes.filter((h) => !stillUsed.has(h));
+	for (const h of orphanedUploads) discardUpload(h);
+	return { impact, orphanedUploads };
 }

@@ -26,6 +26,18 @@ export function requireAdmin(event: Event): SessionUser {
 	return user;
 }
 
+/** Who may create cruises: admins and members the marine office marked as allowed to lead them. */
+export function canCreateCruise(user: Pick<SessionUser, 'role' | 'canLeadCruises'>): boolean {
+	return user.role === 'admin' || user.canLeadCruises;
+}
+
+export function requireCruiseCreator(event: Event): SessionUser {
+	const user = requireUser(event);
+	if (!canCreateCruise(user))
+		error(403, 'Creating a cruise needs the marine office to allow you to lead cruises.');
+	return user;
+}
+
 export interface CruiseAccess {
 	user: SessionUser;
 	cruise: Cruise;

@@ -81,6 +81,7 @@ export function list() {
 			email: user.email,
 			name: user.name,
 			role: user.role,
+			canLeadCruises: user.canLeadCruises,
 			createdAt: user.createdAt
 		})
 		.from(user)
@@ -331,4 +332,11 @@ export async function changePassword(
 
 export function rename(userId: string, name: string) {
 	db.update(user).set({ name }).where(eq(user.id, userId)).run();
+}
+
+/** The marine office allows (or stops) a member to create and lead cruises. */
+export function setCanLeadCruises(actorId: string, userId: string, allowed: boolean) {
+	const res = db.update(user).set({ canLeadCruises: allowed }).where(eq(user.id, userId)).run();
+	if (res.changes === 0) throw new DomainError('No such person.', 'userId', 404);
+	audit(db, { userId: actorId, action: 'user.can_lead', detail: { userId, allowed } });
 }

@@ -40,7 +40,9 @@ export const user = sqliteTable('user', {
 	name: text().notNull(),
 	passwordHash: text(),
 	role: text({ enum: GLOBAL_ROLES }).notNull().default('member'),
-	createdAt: createdAt()
+	createdAt: createdAt(),
+	// Set by the marine office: this member may create cruises (and so lead them). Admins always may.
+	canLeadCruises: integer({ mode: 'boolean' }).notNull().default(false)
 });
 
 export const session = sqliteTable(
@@ -142,30 +144,35 @@ export const port = sqliteTable('port', {
 	utcOffsetMinutes: integer().notNull().default(0)
 });
 
-export const cruise = sqliteTable('cruise', {
-	id: id(),
-	code: text().notNull().unique(),
-	title: text().notNull(),
-	status: text({ enum: CRUISE_STATUSES }).notNull().default('draft'),
-	vesselId: text().references(() => vessel.id, { onDelete: 'set null' }),
-	departurePortId: text().references(() => port.id),
-	returnPortId: text().references(() => port.id),
-	departureAt: integer({ mode: 'timestamp_ms' }),
-	returnAt: integer({ mode: 'timestamp_ms' }),
-	allocatedDays: real().notNull().default(0),
-	weatherMarginPct: real().notNull().default(10),
-	// When set, the weather margin is this many days instead of a share of the sea time.
-	weatherMarginDays: real(),
-	// Timeline settings (hours): turning between consecutive survey lines, alongside before sailing
-	// and after returning.
-	turnH: real().notNull().default(0.5),
-	mobilisationH: real().notNull().default(24),
-	demobilisationH: real().notNull().default(12),
-	depthModel: text({ enum: DEPTH_MODELS }).notNull().default('stein-stein-1992'),
-	createdById: text().references(() => user.id, { onDelete: 'set null' }),
-	createdAt: createdAt(),
-	updatedAt: createdAt()
-});
+export const cruise = sqliteTable(
+	'cruise',
+	{
+		id: id(),
+		code: text().notNull().unique(),
+		title: text().notNull(),
+		status: text({ enum: CRUISE_STATUSES }).notNull().default('draft'),
+		vesselId: text().references(() => vessel.id, { onDelete: 'set null' }),
+		departurePortId: text().references(() => port.id),
+		returnPortId: text().references(() => port.id),
+		departureAt: integer({ mode: 'timestamp_ms' }),
+		returnAt: integer({ mode: 'timestamp_ms' }),
+		allocatedDays: real().notNull().default(0),
+		weatherMarginPct: real().notNull().default(10),
+		// When set, the weather margin is this many days instead of a share of the sea time.
+		weatherMarginDays: real(),
+		// Timeline settings (hours): turning between consecutive survey lines, alongside before sailing
+		// and after returning.
+		turnH: real().notNull().default(0.5),
+		mobilisationH: real().notNull().default(24),
+		demobilisationH: real().notNull().default(12),
+		depthModel: text({ enum: DEPTH_MODELS }).notNull().default('stein-stein-1992'),
+		createdById: text().references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt(),
+		updatedAt: createdAt()
+	},
+	// Codes are unique regardless of case: MT27-03 and mt27-03 name the same cruise.
+	(t) => [uniqueIndex('cruise_code_ci_idx').on(sql`lower(${t.code})`)]
+);
 
 export const cruiseMember = sqliteTable(
 	'cruise_member',

@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { message, setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { z } from 'zod';
+import { z } from '$lib/schemas/messages';
 import { changePasswordSchema, profileSchema, tokenSchema } from '$lib/schemas/auth';
 import { createApiToken, listApiTokens, revokeApiToken } from '$lib/server/auth';
 import { db } from '$lib/server/db';

@@ -12,7 +12,7 @@ export const load: PageServerLoad = (event) => {
 	const t = built.timeline;
 	return {
 		detail: d,
-		members: cruises.members(access.cruise.id),
+		members: cruises.members(access.cruise.id, access),
 		glance: t
 			? {
 					operatingDays: t.totals.operatingDays,

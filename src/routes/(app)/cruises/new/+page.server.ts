@@ -9,7 +9,7 @@ import * as vessels from '$lib/server/vessels';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
-	guards.requireUser(event);
+	guards.requireCruiseCreator(event);
 	return {
 		form: await superValidate(zod4(cruiseSchema)),
 		vessels: vessels.list(),
@@ -19,14 +19,18 @@ export const load: PageServerLoad = async (event) => {
 
 export const actions: Actions = {
 	default: async (event) => {
-		const user = guards.requireUser(event);
+		const user = guards.requireCruiseCreator(event);
 		const form = await superValidate(event.request, zod4(cruiseSchema));
+		// A taken code is said at once, beside any other problem, not only after the rest is right.
+		const clash = cruises.codeClash(String(form.data.code ?? '').trim());
+		if (clash) return setError(form, 'code', clash, { status: 409 });
 		if (!form.valid) return fail(400, { form });
 		let id: string;
 		try {
 			id = cruises.create(user.id, form.data);
 		} catch (e) {
-			if (e instanceof DomainError) return setError(form, (e.field ?? '') as 'code', e.message);
+			if (e instanceof DomainError)
+				return setError(form, (e.field ?? '') as 'code', e.message, { status: 409 });
 			throw e;
 		}
 		redirect(303, `/cruises/${id}`);

@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { message, setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { z } from 'zod';
+import { z } from '$lib/schemas/messages';
 import { memberInviteSchema, memberRoleSchema } from '$lib/schemas/cruise';
 import * as cruises from '$lib/server/cruises';
 import * as guards from '$lib/server/guards';
@@ -15,7 +15,8 @@ export const load: PageServerLoad = async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
 	const canManage = access.isAdmin || access.role === 'chief_scientist';
 	return {
-		members: cruises.members(access.cruise.id),
+		members: cruises.members(access.cruise.id, access),
+		seesEmails: cruises.seesEmails(access),
 		invitations: canManage ? cruises.pendingInvitations(access.cruise.id) : [],
 		canManage,
 		me: access.user.id,
