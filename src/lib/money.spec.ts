@@ -105,9 +105,7 @@ describe('rounding half-up', () => {
 	it('sums totals from rounded lines, so the printed lines add up to the printed total', () => {
 		// [derived] three lines of 1 × EUR 0.333… can't exist; use 3 lines of 0.5 × 1 cent:
 		// each rounds to 1 cent, total 3 cents (rounding the exact sum 1.5 would give 2).
-		const lines = [1, 2, 3].map(() =>
-			lineAmounts({ quantity: '0.5', unitMinor: 1, taxPct: '0' })
-		);
+		const lines = [1, 2, 3].map(() => lineAmounts({ quantity: '0.5', unitMinor: 1, taxPct: '0' }));
 		expect(totalMinor(lines)).toBe(3);
 	});
 

@@ -85,7 +85,9 @@ function scaled(text: string, places: number): bigint {
  * One line: net = quantity × unit price, rounded half-up to the minor unit; tax = net × rate,
  * rounded half-up; amount = net + tax. Throws RangeError on malformed input.
  */
-export function lineAmounts(line: Pick<LineInput, 'quantity' | 'unitMinor' | 'taxPct'>): LineAmounts {
+export function lineAmounts(
+	line: Pick<LineInput, 'quantity' | 'unitMinor' | 'taxPct'>
+): LineAmounts {
 	if (!QTY.test(line.quantity))
 		throw new RangeError(`Quantity "${line.quantity}" is not a number with up to 3 decimals.`);
 	if (!PCT.test(line.taxPct))

@@ -24,6 +24,18 @@ export const config = {
 	mailCatcherDir: e.MAIL_CATCHER_DIR || 'data/mailbox',
 	/** Milliseconds between outbox sweeps. */
 	outboxIntervalMs: int('OUTBOX_INTERVAL_MS', 5000),
+	/**
+	 * Payments (Stripe SDK). `npm start` fills these with a local payment service when
+	 * STRIPE_SECRET_KEY is empty; STRIPE_API_HOST/PORT/PROTOCOL point the SDK elsewhere than
+	 * api.stripe.com (empty: the SDK's default).
+	 */
+	stripe: {
+		secretKey: e.STRIPE_SECRET_KEY || '',
+		webhookSecret: e.STRIPE_WEBHOOK_SECRET || '',
+		apiHost: e.STRIPE_API_HOST || '',
+		apiPort: e.STRIPE_API_PORT || '',
+		apiProtocol: (e.STRIPE_API_PROTOCOL || '') as '' | 'http' | 'https'
+	},
 	signIn: {
 		windowMs: int('SIGNIN_WINDOW_MS', 15 * 60_000),
 		maxPerAccount: int('SIGNIN_MAX_PER_ACCOUNT', 5),

@@ -391,7 +391,10 @@ export const invoice = sqliteTable('invoice', {
 	dueAt: integer({ mode: 'timestamp_ms' }),
 	paidAt: integer({ mode: 'timestamp_ms' }),
 	createdAt: createdAt(),
-	lines: text({ mode: 'json' }).$type<InvoiceLine[]>().notNull().default(sql`'[]'`),
+	lines: text({ mode: 'json' })
+		.$type<InvoiceLine[]>()
+		.notNull()
+		.default(sql`'[]'`),
 	// A credit note names the issued invoice it corrects; a final account names its estimate.
 	correctsId: text().references((): AnySQLiteColumn => invoice.id, { onDelete: 'set null' }),
 	estimateId: text().references((): AnySQLiteColumn => invoice.id, { onDelete: 'set null' }),
