@@ -387,7 +387,7 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Cancel and go back</a
 				return send(res, seen.status, seen.body, { 'idempotent-replayed': 'true' });
 			}
 		}
-		let status = 200;
+		const status = 200;
 		let body: unknown;
 		let m: RegExpExecArray | null;
 		if (req.method === 'POST' && path === '/v1/checkout/sessions') body = createSession(params);
