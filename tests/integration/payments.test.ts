@@ -2,6 +2,7 @@
 // speaking Stripe's HTTP API), signed webhooks, the outbox and the mail catcher.
 import { and, eq } from 'drizzle-orm';
 import { rmSync } from 'node:fs';
+import Papa from 'papaparse';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startFakePayments } from '../../scripts/fake-payments';
@@ -397,6 +398,93 @@ describe('invoices and payments', () => {
 			currency: 'JPY',
 			status: 'paid'
 		});
+	});
+});
+
+describe('receivables', () => {
+	let srv: TestServer;
+	beforeAll(async () => {
+		srv = await startServer();
+	}, 90_000);
+	afterAll(async () => srv?.stop());
+
+	it('exports open invoices as RFC 4180 CSV that a CSV reader reads back, for admins only', async () => {
+		const db = openDb(srv.dbPath);
+		const cId = db.select().from(cruise).where(eq(cruise.code, 'MT27-03')).get()!.id;
+		const awkward = 'Berths, "leg 2"\nand =SUM(A1) in the text';
+		db.insert(invoice)
+			.values({
+				id: newId(),
+				cruiseId: cId,
+				number: 'WL-2027-0901',
+				kind: 'recharge',
+				description: awkward,
+				amountMinor: 1_000,
+				currency: 'KWD',
+				status: 'issued',
+				issuedAt: new Date(),
+				dueAt: new Date(Date.now() - 86_400_000),
+				lines: []
+			})
+			.run();
+		db.insert(invoice)
+			.values({
+				id: newId(),
+				cruiseId: cId,
+				number: 'WL-2027-0902',
+				kind: 'recharge',
+				description: '=HYPERLINK("x")',
+				amountMinor: 1_234,
+				currency: 'KWD',
+				status: 'issued',
+				issuedAt: new Date(),
+				dueAt: new Date(Date.now() + 86_400_000),
+				lines: []
+			})
+			.run();
+		db.$client.close();
+		const admin = (await signIn(srv.url, DEMO.admin, DEMO.password, '10.9.2.1')).cookie!;
+		const agent = (await signIn(srv.url, DEMO.agent, DEMO.password, '10.9.2.2')).cookie!;
+		const refused = await fetch(`${srv.url}/admin/receivables/receivables.csv`, {
+			headers: { cookie: agent }
+		});
+		expect(refused.status).toBe(403);
+		const res = await fetch(`${srv.url}/admin/receivables/receivables.csv`, {
+			headers: { cookie: admin }
+		});
+		expect(res.status).toBe(200);
+		expect(res.headers.get('content-type')).toMatch(/^text\/csv/);
+		const body = await res.text();
+		expect(body.endsWith('\r\n')).toBe(true);
+		const parsed = Papa.parse<Record<string, string>>(body.trimEnd(), { header: true });
+		expect(parsed.errors).toEqual([]);
+		const rows = parsed.data;
+		const one = rows.find((r) => r.number === 'WL-2027-0901')!;
+		expect(one.description).toBe(awkward);
+		// [published] ISO 4217: KWD has 3 decimals, so 1000 fils are 1.000 dinar.
+		expect(one).toMatchObject({
+			currency: 'KWD',
+			amount: '1.000',
+			outstanding: '1.000',
+			overdue: 'yes'
+		});
+		const two = rows.find((r) => r.number === 'WL-2027-0902')!;
+		expect(two.description).toBe(`'=HYPERLINK("x")`);
+		expect(two.overdue).toBe('no');
+		// Issued demo invoices in EUR and JPY are listed with what is left to pay.
+		expect(rows.find((r) => r.number === 'WL-2027-0002')).toMatchObject({
+			currency: 'EUR',
+			status: 'issued'
+		});
+		expect(rows.find((r) => r.number === 'WL-2027-0005')).toMatchObject({
+			currency: 'JPY',
+			outstanding: '52800'
+		});
+		expect(rows.some((r) => r.number === 'WL-2027-0001')).toBe(false); // paid
+		const page = await (
+			await fetch(`${srv.url}/admin/receivables`, { headers: { cookie: admin } })
+		).text();
+		expect(page).toContain('KWD 2.234');
 	});
 });
 

@@ -3,7 +3,15 @@
 // number per year and freezes the invoice; corrections after that are credit notes.
 import { error as kitError } from '@sveltejs/kit';
 import { and, asc, desc, eq, inArray, like, sql } from 'drizzle-orm';
-import { exponentOf, lineAmounts, parseMajor, totalMinor, type LineInput } from '../money';
+import {
+	exponentOf,
+	lineAmounts,
+	parseMajor,
+	toMajorString,
+	totalMinor,
+	type LineInput
+} from '../money';
+import { guardText, quote } from '../engine/formats/csv';
 import { operatingDays } from '../engine/timeline';
 import { ApiError } from './api';
 import { audit } from './audit';
@@ -613,4 +621,41 @@ export function forReader(access: CruiseAccess, invoiceId: string): InvoiceView 
 	if (!access.isAdmin && (v.status === 'draft' || v.status === 'void'))
 		kitError(404, 'No such invoice on this cruise.');
 	return v;
+}
+
+/** Open invoices as CSV (RFC 4180: CRLF line ends, a header row); amounts in major units. */
+export function receivablesCsv(now = Date.now()): string {
+	const { open } = receivables(now);
+	// Text cells are guarded against spreadsheet formulas; amounts stay plain numbers.
+	const text = (v: string | null) => guardText(v ?? '');
+	const rows: string[][] = [
+		[
+			'cruise',
+			'number',
+			'kind',
+			'description',
+			'currency',
+			'amount',
+			'outstanding',
+			'issued',
+			'due',
+			'overdue',
+			'status'
+		]
+	];
+	for (const v of open)
+		rows.push([
+			text(v.cruiseCode),
+			text(v.number),
+			v.kind,
+			text(v.description),
+			v.currency,
+			toMajorString(v.amountMinor, v.currency),
+			toMajorString(v.outstandingMinor, v.currency),
+			v.issuedAt?.toISOString().slice(0, 10) ?? '',
+			v.dueAt?.toISOString().slice(0, 10) ?? '',
+			v.overdue ? 'yes' : 'no',
+			v.status
+		]);
+	return rows.map((r) => r.map(quote).join(',')).join('\r\n') + '\r\n';
 }
