@@ -10,6 +10,7 @@ import * as deadlines from '../src/lib/server/deadlines';
 import { newId } from '../src/lib/server/ids';
 import * as timelines from '../src/lib/server/timeline';
 import { operatingDays } from '../src/lib/engine/timeline';
+import { lineAmounts, totalMinor } from '../src/lib/money';
 
 export const DEMO_PASSWORD = 'ridge-crest-2027';
 
@@ -429,7 +430,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				{
 					id: newId(),
 					cruiseId,
-					number: 'MT27-03-001',
+					number: 'WL-2027-0001',
 					kind: 'port_call_estimate',
 					description: 'Port call Bellmoor Harbour — disbursement estimate',
 					amountMinor: 1_420_000,
@@ -442,7 +443,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				{
 					id: newId(),
 					cruiseId,
-					number: 'MT27-03-002',
+					number: 'WL-2027-0002',
 					kind: 'ship_time',
 					description: 'Ship time, leg 1 — 15 operating days at EUR 38,500',
 					amountMinor: 15 * 3_850_000,
@@ -454,7 +455,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				{
 					id: newId(),
 					cruiseId,
-					number: 'MT27-03-003',
+					number: null,
 					kind: 'recharge',
 					description: 'Science-party recharge: shipping of the dredge kit',
 					amountMinor: 312_500,
@@ -620,8 +621,15 @@ function seedSchedule(db: Db, sail: number) {
 			description: `Ship time, leg 1 — ${leg1Days} operating days at EUR 38,500`,
 			amountMinor: leg1Days * 3_850_000
 		})
-		.where(eq(t.invoice.number, 'MT27-03-002'))
+		.where(eq(t.invoice.number, 'WL-2027-0002'))
 		.run();
+	seedInvoices(
+		db,
+		cruiseId,
+		legs[0],
+		leg1Days,
+		db.select().from(t.user).where(eq(t.user.email, 'agent@example.org')).get()!.id
+	);
 
 	// The western flank work lies in Xandera's waters (invented boundary).
 	const xandera = db.select().from(t.clearance).where(eq(t.clearance.cruiseId, cruiseId)).get()!;
@@ -655,6 +663,193 @@ function seedSchedule(db: Db, sail: number) {
 	for (const r of deadlines.rows(cruiseId, db))
 		if (r.title.startsWith('Personnel forms') || r.title.startsWith('Dangerous goods'))
 			deadlines.setDone(chief, cruiseId, r.id, true, db);
+}
+
+/** Invoice lines, payments and the other kinds and states (amounts invented for the demo). */
+function seedInvoices(
+	db: Db,
+	cruiseId: string,
+	leg1: { start: number; end: number; from: string; to: string },
+	leg1Days: number,
+	agentId: string
+) {
+	const line = (
+		description: string,
+		quantity: string,
+		unitMinor: number,
+		taxPct = '0',
+		extra: Partial<t.InvoiceLine> = {}
+	): t.InvoiceLine => ({
+		description,
+		quantity,
+		unit: '',
+		unitMinor,
+		taxPct,
+		...lineAmounts({ quantity, unitMinor, taxPct }),
+		...extra
+	});
+	const byNumber = (n: string) => db.select().from(t.invoice).where(eq(t.invoice.number, n)).get()!;
+	const billTo = 'Sallow Ridge project office\nInstitute of Ocean Floor Studies (invented)';
+	const setLines = (id: string, lines: t.InvoiceLine[]) =>
+		db
+			.update(t.invoice)
+			.set({ lines, amountMinor: totalMinor(lines), billTo })
+			.where(eq(t.invoice.id, id))
+			.run();
+
+	// The paid port-call estimate, with its payment (and so its receipt).
+	const estimate = byNumber('WL-2027-0001');
+	const estimateLines = [
+		line('Pilotage in and out', '2', 185_000, '25', { unit: 'act' }),
+		line('Towage, two tugs', '4', 142_500, '25', { unit: 'tug-hour' }),
+		line('Berth dues', '36', 9_800, '25', { unit: 'hour' }),
+		line('Agency fee', '1', 175_000, '25'),
+		line('Launch hire', '3', 21_000, '25', { unit: 'trip' }),
+		line('Fresh water', '120', 450, '12', { unit: 'tonne' }),
+		line('Waste reception', '1', 38_000, '25'),
+		line('Customs and immigration clearance', '1', 26_500, '0')
+	];
+	setLines(estimate.id, estimateLines);
+	const paidAt = estimate.paidAt ?? new Date();
+	db.insert(t.payment)
+		.values({
+			id: newId(),
+			invoiceId: estimate.id,
+			checkoutSessionId: `cs_demo_${newId()}`,
+			status: 'paid',
+			amountMinor: totalMinor(estimateLines),
+			currency: 'EUR',
+			paidById: agentId,
+			payerEmail: 'agent@example.org',
+			paymentIntentId: `pi_demo_${newId()}`,
+			completedAt: paidAt
+		})
+		.run();
+
+	// Ship time for leg 1, issued and waiting for the port agent.
+	const ship = byNumber('WL-2027-0002');
+	setLines(ship.id, [
+		line(`Leg 1: ${leg1.from} → ${leg1.to}`, String(leg1Days), 3_850_000, '0', {
+			unit: 'operating day',
+			legSeq: 1,
+			start: leg1.start,
+			end: leg1.end
+		})
+	]);
+
+	// The science-party recharge draft.
+	const draft = db
+		.select()
+		.from(t.invoice)
+		.where(and(eq(t.invoice.cruiseId, cruiseId), eq(t.invoice.kind, 'recharge')))
+		.get()!;
+	setLines(draft.id, [line('Dredge kit freight, return', '1', 312_500, '0')]);
+
+	const issued = estimate.issuedAt!;
+	const due = new Date(issued.getTime() + 30 * DAY);
+	const rows: (typeof t.invoice.$inferInsert)[] = [];
+	const add = (
+		v: Omit<typeof t.invoice.$inferInsert, 'id' | 'amountMinor' | 'cruiseId'> & {
+			lines: t.InvoiceLine[];
+			cruiseId?: string;
+		}
+	) => {
+		const id = newId();
+		rows.push({ id, cruiseId, billTo, amountMinor: totalMinor(v.lines), ...v });
+		return id;
+	};
+	// Recharges per institution: berth-days × rate, partly paid.
+	const partly = add({
+		number: 'WL-2027-0003',
+		kind: 'recharge',
+		description: 'Science-party recharge, leg 1 — berth-days',
+		currency: 'EUR',
+		status: 'partly_paid',
+		issuedAt: issued,
+		dueAt: due,
+		lines: [
+			line('Berth-days, leg 1', '56', 24_000, '0', {
+				unit: 'berth-day',
+				institution: 'Harbourside University (invented)'
+			}),
+			line('Berth-days, leg 1', '42', 24_000, '0', {
+				unit: 'berth-day',
+				institution: 'Coldwater Institute (invented)'
+			})
+		]
+	});
+	// A recharge paid and then refunded in full (the trip was cancelled).
+	const refunded = add({
+		number: 'WL-2027-0004',
+		kind: 'recharge',
+		description: 'Science-party recharge — cancelled shore excursion',
+		currency: 'EUR',
+		status: 'refunded',
+		issuedAt: issued,
+		dueAt: due,
+		lines: [line('Shore excursion, coach hire', '1', 64_000, '25')]
+	});
+	// The final account of the port call, still a draft: one line came in higher.
+	add({
+		number: null,
+		kind: 'port_call_final',
+		description: 'Port call Bellmoor Harbour — final account',
+		currency: 'EUR',
+		status: 'draft',
+		estimateId: estimate.id,
+		lines: estimateLines.map((l, i) =>
+			i === 2
+				? {
+						...line(l.description, '41', 9_800, '25', { unit: 'hour' }),
+						estimateMinor: l.amountMinor
+					}
+				: { ...l, estimateMinor: l.amountMinor }
+		)
+	});
+	// A draft that was voided before issue.
+	add({
+		number: null,
+		kind: 'port_call_estimate',
+		description: 'Port call Bellmoor Harbour — first estimate (replaced)',
+		currency: 'EUR',
+		status: 'void',
+		voidedAt: issued,
+		lines: [line('Agency fee', '1', 150_000, '25')]
+	});
+	// A small zero-decimal invoice on the second cruise.
+	const other = db.select().from(t.cruise).where(eq(t.cruise.code, 'SL27-01')).get()!;
+	add({
+		cruiseId: other.id,
+		number: 'WL-2027-0005',
+		kind: 'recharge',
+		description: 'Core-splitting room, two days',
+		currency: 'JPY',
+		status: 'issued',
+		issuedAt: issued,
+		dueAt: due,
+		lines: [line('Core-splitting room', '2', 24_000, '10', { unit: 'day' })]
+	});
+	db.insert(t.invoice).values(rows).run();
+	const pay = (invoiceId: string, amountMinor: number, refundedMinor = 0) =>
+		db
+			.insert(t.payment)
+			.values({
+				id: newId(),
+				invoiceId,
+				checkoutSessionId: `cs_demo_${newId()}`,
+				status: refundedMinor ? 'refunded' : 'paid',
+				amountMinor,
+				refundedMinor,
+				refundedAt: refundedMinor ? new Date(issued.getTime() + 20 * DAY) : null,
+				currency: 'EUR',
+				paidById: agentId,
+				payerEmail: 'agent@example.org',
+				paymentIntentId: `pi_demo_${newId()}`,
+				completedAt: new Date(issued.getTime() + 12 * DAY)
+			})
+			.run();
+	pay(partly, 1_000_000);
+	pay(refunded, 80_000, 80_000);
 }
 
 export function demoCruiseId(db: Db): string | undefined {

@@ -1,7 +1,10 @@
 // Runs the built app: migrate, seed the demo once, start the local fakes unless real services are
 // configured, then the adapter-node server. `npm start` calls this after installing and building.
+import { spawn } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
+import { createInterface } from 'node:readline';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { config } from '../src/lib/server/config';
@@ -39,6 +42,32 @@ if (!config.smtpUrl) {
 	process.env.SMTP_URL = `smtp://127.0.0.1:${smtpPort}`;
 	process.env.MAIL_CATCHER = '1';
 	fakes.push(`mail catcher on 127.0.0.1:${smtpPort} (read it at /admin/mail)`);
+}
+
+// Payments: without a real key, the local payment service runs as its own process on loopback and
+// the SDK is pointed at it; the webhook secret is shared (or generated) so its events verify.
+if (!process.env.STRIPE_SECRET_KEY) {
+	process.env.STRIPE_SECRET_KEY = `sk_test_local_${randomBytes(12).toString('hex')}`;
+	process.env.STRIPE_WEBHOOK_SECRET ||= `whsec_${randomBytes(24).toString('base64url')}`;
+	const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/fake-payments.ts'], {
+		env: {
+			...process.env,
+			FAKE_PAYMENTS_PORT: process.env.FAKE_PAYMENTS_PORT || '0',
+			FAKE_PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${port}/api/v1/payments/webhook`
+		},
+		stdio: ['pipe', 'pipe', 'inherit']
+	});
+	const line = await new Promise<string>((ok, fail) => {
+		const rl = createInterface({ input: child.stdout! });
+		rl.once('line', ok);
+		child.once('exit', (code) => fail(new Error(`the payment service exited (${code})`)));
+	});
+	const payPort = (JSON.parse(line) as { port: number }).port;
+	closers.push(() => child.kill('SIGTERM'));
+	process.env.STRIPE_API_HOST = '127.0.0.1';
+	process.env.STRIPE_API_PORT = String(payPort);
+	process.env.STRIPE_API_PROTOCOL = 'http';
+	fakes.push(`payment service on 127.0.0.1:${payPort} (test card 4242 4242 4242 4242)`);
 }
 
 const entry = resolve(process.env.BUILD_DIR || 'build', 'index.js');

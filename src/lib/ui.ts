@@ -30,3 +30,19 @@ export function formatUtc(d: Date | string | null | undefined): string {
 	const date = typeof d === 'string' ? new Date(d) : d;
 	return date.toISOString().slice(0, 16).replace('T', ' ') + ' UTC';
 }
+
+export const INVOICE_STATUS_LABELS = {
+	draft: 'Draft',
+	issued: 'Issued',
+	partly_paid: 'Partly paid',
+	paid: 'Paid',
+	refunded: 'Refunded',
+	void: 'Void'
+} as const;
+
+export const INVOICE_KIND_LABELS = {
+	ship_time: 'Ship time',
+	port_call_estimate: 'Port call — estimate',
+	port_call_final: 'Port call — final account',
+	recharge: 'Science-party recharge'
+} as const;

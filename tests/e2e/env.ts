@@ -17,6 +17,8 @@ export function e2eEnv(): Record<string, string> {
 		HOST: '127.0.0.1',
 		ORIGIN: `http://127.0.0.1:${E2E_PORT}`,
 		OUTBOX_INTERVAL_MS: '200',
-		SMTP_URL: ''
+		SMTP_URL: '',
+		STRIPE_SECRET_KEY: '',
+		FAKE_PAYMENTS_RETRY_MS: '300'
 	};
 }

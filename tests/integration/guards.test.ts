@@ -19,7 +19,9 @@ const PUBLIC: Record<string, string> = {
 	'(auth)/reset/+page.server.ts': 'asking for a reset link',
 	'(auth)/reset/[token]/+page.server.ts': 'the single-use token is the credential',
 	'(auth)/invite/[token]/+page.server.ts': 'the single-use token is the credential',
-	'api/[...rest]/+server.ts': 'answers 404 for unknown API paths'
+	'api/[...rest]/+server.ts': 'answers 404 for unknown API paths',
+	'api/v1/payments/webhook/+server.ts':
+		'the payment service calls it; the signature over the raw body is the credential'
 };
 
 interface RouteFile {

@@ -13,7 +13,8 @@ export interface TestServer {
 	dir: string;
 	dbPath: string;
 	mailDir: string;
-	stop(): Promise<void>;
+	/** Stops the server; `keep` leaves its database and mail folder for a restart. */
+	stop(opts?: { keep?: boolean }): Promise<void>;
 }
 
 export function freePort(): Promise<number> {
@@ -38,6 +39,9 @@ export function testEnv(dir: string, port: number): Record<string, string> {
 		HOST: '127.0.0.1',
 		ORIGIN: `http://127.0.0.1:${port}`,
 		OUTBOX_INTERVAL_MS: '200',
+		// The local payment service, unless a test names another one.
+		STRIPE_SECRET_KEY: '',
+		FAKE_PAYMENTS_RETRY_MS: '200',
 		// Each test may pose as its own client address, so address throttling is testable.
 		ADDRESS_HEADER: 'x-forwarded-for',
 		XFF_DEPTH: '1'
@@ -46,7 +50,7 @@ export function testEnv(dir: string, port: number): Record<string, string> {
 
 export async function startServer(extraEnv: Record<string, string> = {}): Promise<TestServer> {
 	const dir = mkdtempSync(join(tmpdir(), 'wakeline-test-'));
-	const port = await freePort();
+	const port = extraEnv.PORT ? Number(extraEnv.PORT) : await freePort();
 	const env = { ...process.env, ...testEnv(dir, port), ...extraEnv };
 	const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'scripts/serve.ts'], {
 		env,
@@ -73,7 +77,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
 		dir,
 		dbPath: env.DATABASE_PATH!,
 		mailDir: env.MAIL_CATCHER_DIR!,
-		async stop() {
+		async stop(opts = {}) {
 			if (child.exitCode === null) {
 				const exited = new Promise((r) => child.once('exit', r));
 				child.kill('SIGTERM');
@@ -81,7 +85,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
 				await exited;
 				clearTimeout(timer);
 			}
-			rmSync(dir, { recursive: true, force: true });
+			if (!opts.keep) rmSync(dir, { recursive: true, force: true });
 		}
 	};
 }

@@ -33,6 +33,18 @@ export const config = {
 		budgetMs: int('ENGINE_BUDGET_MS', 10_000),
 		maxQueue: int('ENGINE_MAX_QUEUE', 64)
 	},
+	/**
+	 * Payments (Stripe SDK). `npm start` fills these with a local payment service when
+	 * STRIPE_SECRET_KEY is empty; STRIPE_API_HOST/PORT/PROTOCOL point the SDK elsewhere than
+	 * api.stripe.com (empty: the SDK's default).
+	 */
+	stripe: {
+		secretKey: e.STRIPE_SECRET_KEY || '',
+		webhookSecret: e.STRIPE_WEBHOOK_SECRET || '',
+		apiHost: e.STRIPE_API_HOST || '',
+		apiPort: e.STRIPE_API_PORT || '',
+		apiProtocol: (e.STRIPE_API_PROTOCOL || '') as '' | 'http' | 'https'
+	},
 	signIn: {
 		windowMs: int('SIGNIN_WINDOW_MS', 15 * 60_000),
 		maxPerAccount: int('SIGNIN_MAX_PER_ACCOUNT', 5),

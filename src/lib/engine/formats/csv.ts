@@ -63,7 +63,7 @@ const PLAN_NAME_PREFIX = '# plan: ';
 /** Text cells a spreadsheet would run as a formula get a leading apostrophe (CSV injection). */
 const FORMULA_START = /^[=+\-@\t\r]/;
 
-function guardText(s: string): string {
+export function guardText(s: string): string {
 	return FORMULA_START.test(s) ? `'${s}` : s;
 }
 
@@ -71,7 +71,7 @@ function unguardText(s: string): string {
 	return s.startsWith("'") && FORMULA_START.test(s.slice(1)) ? s.slice(1) : s;
 }
 
-function quote(cell: string): string {
+export function quote(cell: string): string {
 	return /[",\r\n]|^\s|\s$/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell;
 }
 

@@ -350,14 +350,45 @@ export const INVOICE_KINDS = [
 	'port_call_final',
 	'recharge'
 ] as const;
-export const INVOICE_STATUSES = ['draft', 'issued', 'paid', 'void'] as const;
+export const INVOICE_STATUSES = [
+	'draft',
+	'issued',
+	'partly_paid',
+	'paid',
+	'refunded',
+	'void'
+] as const;
+export type InvoiceStatus = (typeof INVOICE_STATUSES)[number];
+export const PAYMENT_STATUSES = ['open', 'paid', 'expired', 'failed', 'refunded'] as const;
+
+/** One invoice line as stored (amounts already rounded, see src/lib/money.ts). */
+export interface InvoiceLine {
+	description: string;
+	/** Decimal quantity as text, up to 3 decimals. */
+	quantity: string;
+	unit: string;
+	unitMinor: number;
+	taxPct: string;
+	netMinor: number;
+	taxMinor: number;
+	amountMinor: number;
+	/** Ship time: the leg and its dates (epoch ms). */
+	legSeq?: number;
+	start?: number;
+	end?: number;
+	/** Final account: what the estimate said for this line. */
+	estimateMinor?: number;
+	/** Recharges: the institution billed. */
+	institution?: string;
+}
 
 export const invoice = sqliteTable('invoice', {
 	id: id(),
 	cruiseId: text()
 		.notNull()
 		.references(() => cruise.id, { onDelete: 'cascade' }),
-	number: text().notNull().unique(),
+	// Given when issued, gapless per year (WL-2027-0007); drafts have none.
+	number: text().unique(),
 	kind: text({ enum: INVOICE_KINDS }).notNull(),
 	description: text().notNull(),
 	amountMinor: integer().notNull(),
@@ -366,7 +397,19 @@ export const invoice = sqliteTable('invoice', {
 	issuedAt: integer({ mode: 'timestamp_ms' }),
 	dueAt: integer({ mode: 'timestamp_ms' }),
 	paidAt: integer({ mode: 'timestamp_ms' }),
-	createdAt: createdAt()
+	createdAt: createdAt(),
+	lines: text({ mode: 'json' })
+		.$type<InvoiceLine[]>()
+		.notNull()
+		.default(sql`'[]'`),
+	// A credit note names the issued invoice it corrects; a final account names its estimate.
+	correctsId: text().references((): AnySQLiteColumn => invoice.id, { onDelete: 'set null' }),
+	estimateId: text().references((): AnySQLiteColumn => invoice.id, { onDelete: 'set null' }),
+	isCreditNote: integer({ mode: 'boolean' }).notNull().default(false),
+	/** Whom the invoice is addressed to (the operator's wording), printed on it. */
+	billTo: text().notNull().default(''),
+	createdById: text().references(() => user.id, { onDelete: 'set null' }),
+	voidedAt: integer({ mode: 'timestamp_ms' })
 });
 
 export const payment = sqliteTable('payment', {
@@ -375,14 +418,19 @@ export const payment = sqliteTable('payment', {
 		.notNull()
 		.references(() => invoice.id, { onDelete: 'cascade' }),
 	checkoutSessionId: text().notNull().unique(),
-	status: text({ enum: ['open', 'paid', 'expired', 'failed'] })
-		.notNull()
-		.default('open'),
+	status: text({ enum: PAYMENT_STATUSES }).notNull().default('open'),
 	amountMinor: integer().notNull(),
 	currency: text().notNull(),
 	paidById: text().references(() => user.id, { onDelete: 'set null' }),
 	createdAt: createdAt(),
-	completedAt: integer({ mode: 'timestamp_ms' })
+	completedAt: integer({ mode: 'timestamp_ms' }),
+	paymentIntentId: text(),
+	payerEmail: text(),
+	refundId: text(),
+	refundedAt: integer({ mode: 'timestamp_ms' }),
+	refundedMinor: integer().notNull().default(0),
+	/** Why admins must look at this payment (e.g. a second payment, refunded). */
+	flag: text()
 });
 
 // Webhook events already handled, so a redelivered event changes nothing.

@@ -23,3 +23,26 @@ describe('mail templates', () => {
 		expect(m.text).toContain('14 days');
 	});
 });
+
+describe('payment mail', () => {
+	it('a receipt names the amount, the invoice, the receipt number and the printable link', () => {
+		const m = templates.paymentReceipt({
+			number: 'WL-2027-0002',
+			cruiseCode: 'MT27-03',
+			description: 'Ship time, leg 1',
+			amount: 'EUR 308,000.00',
+			paidAt: new Date(Date.UTC(2027, 2, 28, 9, 5)),
+			receiptNo: 'R-ABCDEFGH',
+			status: 'partly_paid',
+			link: 'http://example.org/cruises/c/invoices/i/receipt'
+		});
+		expect(m.subject).toBe('Receipt R-ABCDEFGH: EUR 308,000.00 received for invoice WL-2027-0002');
+		expect(m.text).toContain('2027-03-28 09:05 UTC');
+		expect(m.text).toContain('Invoice status: partly paid');
+		expect(m.text).toContain('http://example.org/cruises/c/invoices/i/receipt');
+	});
+	it('a flag says which invoice needs a look', () => {
+		const m = templates.paymentFlag({ number: 'WL-2027-0900', text: 'Second payment.', link: 'x' });
+		expect(m.subject).toBe('Payment needs a look: invoice WL-2027-0900');
+	});
+});

@@ -65,3 +65,31 @@ export function passwordReset(p: { link: string; expiresMinutes: number }): Mail
 			SIGNATURE
 	};
 }
+
+export function paymentReceipt(p: {
+	number: string;
+	cruiseCode: string;
+	description: string;
+	amount: string;
+	paidAt: Date;
+	receiptNo: string;
+	status: string;
+	link: string;
+}): MailText {
+	return {
+		subject: `Receipt ${p.receiptNo}: ${p.amount} received for invoice ${p.number}`,
+		text:
+			`We received ${p.amount} for invoice ${p.number} (cruise ${p.cruiseCode}: ${p.description}) ` +
+			`on ${p.paidAt.toISOString().slice(0, 16).replace('T', ' ')} UTC.\n\n` +
+			`Receipt number: ${p.receiptNo}\nInvoice status: ${p.status.replace('_', ' ')}\n\n` +
+			`Printable receipt:\n${p.link}` +
+			SIGNATURE
+	};
+}
+
+export function paymentFlag(p: { number: string; text: string; link: string }): MailText {
+	return {
+		subject: `Payment needs a look: invoice ${p.number}`,
+		text: `${p.text}\n\nInvoice:\n${p.link}` + SIGNATURE
+	};
+}

@@ -1,4 +1,5 @@
 import * as guards from '$lib/server/guards';
+import * as invoices from '$lib/server/invoices';
 import type { LayoutServerLoad } from './$types';
 
 export const load: LayoutServerLoad = (event) => {
@@ -9,7 +10,8 @@ export const load: LayoutServerLoad = (event) => {
 			code: access.cruise.code,
 			title: access.cruise.title,
 			role: access.role,
-			canEdit: access.isAdmin || access.role === 'chief_scientist'
+			canEdit: access.isAdmin || access.role === 'chief_scientist',
+			seesInvoices: invoices.canRead(access)
 		}
 	};
 };
