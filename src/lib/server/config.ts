@@ -24,6 +24,8 @@ export const config = {
 	mailCatcherDir: e.MAIL_CATCHER_DIR || 'data/mailbox',
 	/** Milliseconds between outbox sweeps. */
 	outboxIntervalMs: int('OUTBOX_INTERVAL_MS', 5000),
+	/** Milliseconds between reminder runs (documents and clearances falling due); 0 turns them off. */
+	reminderIntervalMs: int('REMINDER_INTERVAL_MS', 3_600_000),
 	signIn: {
 		windowMs: int('SIGNIN_WINDOW_MS', 15 * 60_000),
 		maxPerAccount: int('SIGNIN_MAX_PER_ACCOUNT', 5),
