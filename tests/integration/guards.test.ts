@@ -19,6 +19,8 @@ const PUBLIC: Record<string, string> = {
 	'(auth)/reset/+page.server.ts': 'asking for a reset link',
 	'(auth)/reset/[token]/+page.server.ts': 'the single-use token is the credential',
 	'(auth)/invite/[token]/+page.server.ts': 'the single-use token is the credential',
+	'(auth)/unsubscribe/[token]/+page.server.ts':
+		'RFC 8058 one-click unsubscribe works without signing in; the single-use token is the credential',
 	'api/[...rest]/+server.ts': 'answers 404 for unknown API paths'
 };
 
