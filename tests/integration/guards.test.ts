@@ -21,6 +21,7 @@ const PUBLIC: Record<string, string> = {
 	'(auth)/invite/[token]/+page.server.ts': 'the single-use token is the credential',
 	'(auth)/unsubscribe/[token]/+page.server.ts':
 		'RFC 8058 one-click unsubscribe works without signing in; the single-use token is the credential',
+	'(auth)/unsubscribe/[token]/+server.ts': 'the one-click POST of RFC 8058, token as credential',
 	'api/[...rest]/+server.ts': 'answers 404 for unknown API paths'
 };
 

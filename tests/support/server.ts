@@ -13,7 +13,8 @@ export interface TestServer {
 	dir: string;
 	dbPath: string;
 	mailDir: string;
-	stop(): Promise<void>;
+	/** Stops the server; `keep` leaves the database and mail folder for a restart. */
+	stop(opts?: { keep?: boolean }): Promise<void>;
 }
 
 export function freePort(): Promise<number> {
@@ -44,8 +45,12 @@ export function testEnv(dir: string, port: number): Record<string, string> {
 	};
 }
 
-export async function startServer(extraEnv: Record<string, string> = {}): Promise<TestServer> {
-	const dir = mkdtempSync(join(tmpdir(), 'wakeline-test-'));
+export async function startServer(
+	extraEnv: Record<string, string> = {},
+	/** Restart on the folder (database, mail) of a server stopped with `keep`. */
+	reuseDir?: string
+): Promise<TestServer> {
+	const dir = reuseDir ?? mkdtempSync(join(tmpdir(), 'wakeline-test-'));
 	const port = await freePort();
 	const env = { ...process.env, ...testEnv(dir, port), ...extraEnv };
 	const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'scripts/serve.ts'], {
@@ -73,7 +78,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
 		dir,
 		dbPath: env.DATABASE_PATH!,
 		mailDir: env.MAIL_CATCHER_DIR!,
-		async stop() {
+		async stop(opts?: { keep?: boolean }) {
 			if (child.exitCode === null) {
 				const exited = new Promise((r) => child.once('exit', r));
 				child.kill('SIGTERM');
@@ -81,7 +86,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
 				await exited;
 				clearTimeout(timer);
 			}
-			rmSync(dir, { recursive: true, force: true });
+			if (!opts?.keep) rmSync(dir, { recursive: true, force: true });
 		}
 	};
 }
