@@ -392,7 +392,7 @@ describe('reminders and one-click unsubscribe', () => {
 			return Object.fromEntries(rows.map((r) => [r.kind, r.enabled]));
 		};
 		// Opening the link (as a mail scanner would) changes nothing.
-		const look = await fetch(srv.url + path);
+		const look = await fetch(srv.url + path, { headers: { accept: 'text/html' } });
 		expect(look.status).toBe(200);
 		expect(await look.text()).toContain('Turn off reminders');
 		expect(prefs()).toEqual({});
