@@ -113,7 +113,9 @@ export function items(
 
 /** What moves an event in a calendar: its time and its place (not its wording). */
 export function whereWhen(i: Pick<CalendarItem, 'start' | 'end' | 'allDay' | 'location'>): string {
-	return JSON.stringify([i.start, i.end, i.allDay, i.location ?? '']);
+	// Whole seconds, as the calendar carries them: a shift a client cannot see is no move.
+	const s = (ms: number) => Math.round(ms / 1000);
+	return JSON.stringify([s(i.start), s(i.end), i.allDay, i.location ?? '']);
 }
 
 /** A calendar item as it went out in a published version, with its SEQUENCE. */

@@ -105,9 +105,10 @@ function changeLine(c: Change): string {
 		c.kind === 'deadline' ? utcDate(x.start) : utc(x.start);
 	switch (c.type) {
 		case 'moved':
-			if (c.before!.start === c.after!.start && c.before!.end !== c.after!.end)
+			if (when(c.before!) === when(c.after!) && utc(c.before!.end) !== utc(c.after!.end))
 				return `${c.name} now ends ${utc(c.after!.end)} (was ${utc(c.before!.end)})`;
-			if (c.before!.start === c.after!.start) return `${c.name} moved to ${c.after!.location}`;
+			if (when(c.before!) === when(c.after!) && c.before!.location !== c.after!.location)
+				return `${c.name} moved to ${c.after!.location}`;
 			return `${c.name} moved: ${when(c.before!)} → ${when(c.after!)}`;
 		case 'added':
 			return `Added: ${c.name}, ${when(c.after!)}`;
