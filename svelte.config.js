@@ -7,8 +7,8 @@ const config = {
 	kit: {
 		// BUILD_DIR lets parallel builds (e.g. several test runs) keep apart.
 		adapter: adapter({ out: process.env.BUILD_DIR || 'build' }),
-		// The cross-site form check is done in hooks.server.ts (same rule as SvelteKit's), so that
-		// API paths can refuse in the API's JSON error shape.
+		// The cross-site form check is done in hooks.server.ts (src/lib/server/csrf.ts), so that
+		// API paths refuse in the JSON error shape and RFC 8058 one-click unsubscribe gets through.
 		csrf: { trustedOrigins: ['*'] },
 		// Content-Security-Policy on every page and error page; SvelteKit adds nonces (hashes for
 		// prerendered pages) for its own inline scripts. MapLibre runs its worker from our own

@@ -7,6 +7,7 @@ import * as t from '../src/lib/server/db/schema';
 import type { LonLat } from '../src/lib/server/db/schema';
 import * as clearances from '../src/lib/server/clearances';
 import * as deadlines from '../src/lib/server/deadlines';
+import * as publications from '../src/lib/server/publications';
 import { newId } from '../src/lib/server/ids';
 import * as timelines from '../src/lib/server/timeline';
 import { operatingDays } from '../src/lib/engine/timeline';
@@ -501,7 +502,63 @@ export async function seedDemo(db: Db): Promise<boolean> {
 				.run();
 	});
 	seedSchedule(db, sail);
+	seedPublication(db);
 	return true;
+}
+
+/**
+ * Schedule version 1, published two days ago and delivered, then a change since (the port call at
+ * Bellmoor Harbour grew by six hours), so the preview shows a real change summary. The notice log
+ * also shows a delivery that failed for good and one waiting for its next try.
+ */
+function seedPublication(db: Db) {
+	const cruiseId = demoCruiseId(db)!;
+	const chief = db.select().from(t.user).where(eq(t.user.email, 'chief@example.org')).get()!.id;
+	const at = Date.now() - 2 * DAY;
+	publications.publish(chief, cruiseId, at, db);
+	db.update(t.notice)
+		.set({ status: 'sent', attempts: 1, sentAt: new Date(at + 60_000), createdAt: new Date(at) })
+		.where(and(eq(t.notice.cruiseId, cruiseId), eq(t.notice.status, 'queued')))
+		.run();
+	const failed = db
+		.select()
+		.from(t.notice)
+		.where(and(eq(t.notice.cruiseId, cruiseId), eq(t.notice.toAddress, 'yannick.osei@example.org')))
+		.get();
+	if (failed)
+		db.update(t.notice)
+			.set({
+				status: 'failed',
+				attempts: 8,
+				sentAt: null,
+				lastError: '550 5.1.1 mailbox unavailable (demo)'
+			})
+			.where(eq(t.notice.id, failed.id))
+			.run();
+	const retry = db
+		.select()
+		.from(t.notice)
+		.where(
+			and(eq(t.notice.cruiseId, cruiseId), eq(t.notice.toAddress, 'wendell.abara@example.org'))
+		)
+		.get();
+	if (retry)
+		db.update(t.notice)
+			.set({
+				status: 'queued',
+				attempts: 3,
+				sentAt: null,
+				nextAttemptAt: new Date(Date.now() + 6 * HOUR),
+				lastError: '421 4.4.2 connection timed out (demo)'
+			})
+			.where(eq(t.notice.id, retry.id))
+			.run();
+	const call = db
+		.select()
+		.from(t.planItem)
+		.where(and(eq(t.planItem.cruiseId, cruiseId), eq(t.planItem.kind, 'port_call')))
+		.get()!;
+	timelines.setPortCallHours(chief, cruiseId, call.id, (call.portCallHours ?? 36) + 6, db);
 }
 
 /**

@@ -8,14 +8,17 @@ import {
 	validateSessionToken
 } from '$lib/server/auth';
 import { apiError } from '$lib/server/api';
+import { crossSiteRefusal } from '$lib/server/csrf';
 import { db } from '$lib/server/db';
 import * as enginePool from '$lib/server/engine-pool';
 import { newId } from '$lib/server/ids';
 import * as outbox from '$lib/server/mail/outbox';
+import * as reminders from '$lib/server/reminders';
 
 export const init: ServerInit = () => {
 	outbox.startWorker();
 	void enginePool.warm().catch((e) => console.error('engine pool did not start', e));
+	reminders.startScheduler();
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {
@@ -55,24 +58,17 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
-
 /**
- * SvelteKit's cross-site form check (svelte.config.js hands it to us): a form-typed body sent with
- * a state-changing method from another origin is refused; on API paths in the JSON error shape.
+ * Cross-site form posts refused, as SvelteKit's own check does (svelte.config.js hands it to us, see
+ * csrf.ts for the one exception); on API paths in the JSON error shape.
  */
 const csrf: Handle = async ({ event, resolve }) => {
-	const { request, url } = event;
-	const type = request.headers.get('content-type')?.split(';', 1)[0].trim().toLowerCase() ?? '';
-	const unsafe = ['POST', 'PUT', 'PATCH', 'DELETE'].includes(request.method);
-	if (unsafe && FORM_TYPES.includes(type) && request.headers.get('origin') !== url.origin) {
-		const message = `Cross-site ${request.method} form submissions are forbidden`;
-		if (url.pathname.startsWith('/api/')) return apiError(403, message, 'cross_site');
-		return request.headers.get('accept') === 'application/json'
-			? json({ message }, { status: 403 })
-			: text(message, { status: 403 });
-	}
-	return resolve(event);
+	const refusal = crossSiteRefusal(event.request, event.url);
+	if (!refusal) return resolve(event);
+	if (event.url.pathname.startsWith('/api/')) return apiError(403, refusal, 'cross_site');
+	return event.request.headers.get('accept') === 'application/json'
+		? json({ message: refusal }, { status: 403 })
+		: text(refusal, { status: 403 });
 };
 
 export const handle = sequence(csrf, handleSession, securityHeaders);

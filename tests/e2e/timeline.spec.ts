@@ -78,10 +78,13 @@ test('pushing the plan over its allocation shows the warning and what to cut', a
 	await expect(page.getByText('The plan fits the allocation')).toBeVisible();
 });
 
-test('the calendar parses as iCalendar; after a change UIDs stay and SEQUENCE goes up', async ({
+test('the calendar parses as iCalendar; after a change UIDs stay and SEQUENCE goes up once', async ({
 	page
 }) => {
 	const id = await openTimeline(page);
+	// Publish first, so the export's numbers are the published ones (reading writes nothing).
+	const pub = await page.request.post(`/api/v1/cruises/${id}/schedule/publish`);
+	expect(pub.status()).toBe(200);
 	const url = `/api/v1/cruises/${id}/calendar.ics`;
 	const res = await page.request.get(url);
 	expect(res.headers()['content-type']).toContain('text/calendar');
@@ -96,6 +99,8 @@ test('the calendar parses as iCalendar; after a change UIDs stay and SEQUENCE go
 	await expect(page.getByText(/runs the other way\. Order saved/)).toBeVisible();
 
 	const second = vevents(await (await page.request.get(url)).text());
+	const third = vevents(await (await page.request.get(url)).text());
+	expect(third.map((e) => [e.uid, e.sequence])).toEqual(second.map((e) => [e.uid, e.sequence]));
 	expect(second.map((e) => e.uid).sort()).toEqual(first.map((e) => e.uid).sort());
 	const was = new Map(first.map((e) => [e.uid, e]));
 	const changed = second.filter((e) => e.start !== was.get(e.uid)!.start);

@@ -21,7 +21,10 @@ const PUBLIC: Record<string, string> = {
 	'(auth)/invite/[token]/+page.server.ts': 'the single-use token is the credential',
 	'api/[...rest]/+server.ts': 'answers 404 for unknown API paths',
 	'api/v1/payments/webhook/+server.ts':
-		'the payment service calls it; the signature over the raw body is the credential'
+		'the payment service calls it; the signature over the raw body is the credential',
+	'(auth)/unsubscribe/[token]/+page.server.ts':
+		'RFC 8058 one-click unsubscribe works without signing in; the single-use token is the credential',
+	'(auth)/unsubscribe/[token]/+server.ts': 'the one-click POST of RFC 8058, token as credential',
 };
 
 interface RouteFile {

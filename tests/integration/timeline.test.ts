@@ -162,7 +162,7 @@ describe('the calendar export', () => {
 		expect(events.some((e) => e.summary.includes('Clearance request'))).toBe(true);
 	});
 
-	it('keeps UIDs and raises SEQUENCE only for the events that changed', async () => {
+	it('keeps UIDs and shows SEQUENCE raised only for the events moved since publication', async () => {
 		const first = vevents(
 			await (await get(`/api/v1/cruises/${cruiseId}/calendar.ics`, chief)).text()
 		);
@@ -196,7 +196,9 @@ describe('the calendar export', () => {
 			const old = was.get(e.uid)!;
 			const moved = e.start.compare(old.start) !== 0 || e.end.compare(old.end) !== 0;
 			if (moved) {
-				expect(e.sequence, e.summary).toBe(old.sequence + 1);
+				// The demo published version 1 with every item at SEQUENCE 0; the export shows an
+				// item moved since then one above that, however often it is read (it writes nothing).
+				expect(e.sequence, e.summary).toBe(1);
 				raised++;
 			}
 		}

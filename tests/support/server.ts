@@ -48,8 +48,12 @@ export function testEnv(dir: string, port: number): Record<string, string> {
 	};
 }
 
-export async function startServer(extraEnv: Record<string, string> = {}): Promise<TestServer> {
-	const dir = mkdtempSync(join(tmpdir(), 'wakeline-test-'));
+export async function startServer(
+	extraEnv: Record<string, string> = {},
+	/** Restart on the folder (database, mail) of a server stopped with `keep`. */
+	reuseDir?: string
+): Promise<TestServer> {
+	const dir = reuseDir ?? mkdtempSync(join(tmpdir(), 'wakeline-test-'));
 	const port = extraEnv.PORT ? Number(extraEnv.PORT) : await freePort();
 	const env = { ...process.env, ...testEnv(dir, port), ...extraEnv };
 	const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'scripts/serve.ts'], {
@@ -77,7 +81,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
 		dir,
 		dbPath: env.DATABASE_PATH!,
 		mailDir: env.MAIL_CATCHER_DIR!,
-		async stop(opts = {}) {
+		async stop(opts?: { keep?: boolean }) {
 			if (child.exitCode === null) {
 				const exited = new Promise((r) => child.once('exit', r));
 				child.kill('SIGTERM');
@@ -85,7 +89,7 @@ export async function startServer(extraEnv: Record<string, string> = {}): Promis
 				await exited;
 				clearTimeout(timer);
 			}
-			if (!opts.keep) rmSync(dir, { recursive: true, force: true });
+			if (!opts?.keep) rmSync(dir, { recursive: true, force: true });
 		}
 	};
 }

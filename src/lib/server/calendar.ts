@@ -1,25 +1,27 @@
 // The schedule as an iCalendar file (RFC 5545): timed events in UTC, the legs and the checklist as
 // all-day items whose DTEND is the day after the last (exclusive, RFC 5545 §3.6.1). Each item keeps
-// its UID across exports; its SEQUENCE is raised whenever what it says changes (§3.8.7.4), so
-// calendars that already hold it update it instead of adding a copy.
-import { createHash } from 'node:crypto';
-import { and, eq } from 'drizzle-orm';
+// its UID across exports and versions; its SEQUENCE (§3.8.7.4) comes from the published versions
+// (publications.ts) and rises only when the item's time or place moves, so calendars that already
+// hold it update it instead of adding a copy.
 import { createEvents, type DateArray, type EventAttributes } from 'ics';
 import { formatLatLon } from '../engine/formats/coordinates';
 import * as clearances from './clearances';
 import { db as appDb } from './db';
 import type { Db } from './db/client';
-import { calendarEntry } from './db/schema';
 import * as deadlines from './deadlines';
 import * as timelines from './timeline';
 
-type Writer = Pick<Db, 'select' | 'insert' | 'update' | 'delete' | 'transaction'>;
-
 export interface CalendarItem {
 	key: string;
+	/** The timeline event's kind (line, station, port, …), or 'leg' / 'deadline'. */
+	kind: string;
+	/** The plain name, e.g. "CTD-03" or "Port call, Bellmoor Harbour". */
+	name: string;
 	title: string;
 	description: string;
 	location?: string;
+	/** Ship's clock at the start (minutes from UTC), for timed events. */
+	offsetMinutes?: number;
 	/** Timed: UTC instants (ms). All-day: first and last day, inclusive, as UTC midnights. */
 	start: number;
 	end: number;
@@ -62,6 +64,9 @@ export function items(
 			].filter(Boolean);
 			out.push({
 				key: keys[i],
+				kind: e.kind,
+				name: e.name,
+				offsetMinutes: e.localOffsetMinutes,
 				title: `${code}: ${e.name}`,
 				description: lines.join('\n'),
 				location: e.kind === 'transit' ? undefined : at(e.from),
@@ -73,6 +78,8 @@ export function items(
 		for (const l of timelines.legSpans(t, built.data))
 			out.push({
 				key: `leg-${l.seq}`,
+				kind: 'leg',
+				name: `Leg ${l.seq}: ${l.from} → ${l.to}`,
 				title: `${code} leg ${l.seq}: ${l.from} → ${l.to}`,
 				description: `At sea from ${new Date(l.start).toISOString().slice(0, 16)} UTC to ${new Date(l.end).toISOString().slice(0, 16)} UTC`,
 				start: clearances.utcDay(l.start),
@@ -93,6 +100,8 @@ export function items(
 		if (x.dueAt != null)
 			out.push({
 				key: `deadline-${x.id}`,
+				kind: 'deadline',
+				name: x.title,
 				title: `${code} due: ${x.title}`,
 				description: `${deadlines.KIND_LABELS[x.kind]} · ${x.rule}${x.done ? ' · done' : ''}`,
 				start: x.dueAt,
@@ -102,42 +111,33 @@ export function items(
 	return out;
 }
 
-function digest(i: CalendarItem): string {
-	return createHash('sha256')
-		.update(JSON.stringify([i.title, i.description, i.location ?? '', i.start, i.end, i.allDay]))
-		.digest('hex');
+/** What moves an event in a calendar: its time and its place (not its wording). */
+export function whereWhen(i: Pick<CalendarItem, 'start' | 'end' | 'allDay' | 'location'>): string {
+	// Whole seconds, as the calendar carries them: a shift a client cannot see is no move.
+	const s = (ms: number) => Math.round(ms / 1000);
+	return JSON.stringify([s(i.start), s(i.end), i.allDay, i.location ?? '']);
+}
+
+/** A calendar item as it went out in a published version, with its SEQUENCE. */
+export interface PublishedItem extends CalendarItem {
+	sequence: number;
 }
 
 /**
- * Records what is exported: a new item starts at SEQUENCE 0, a changed one goes up by one, an
- * unchanged one keeps its number. Returns the sequence per key.
+ * SEQUENCE numbers against the last published version: a new item starts at 0, one whose time or
+ * place moved goes one above its published number, any other keeps it (RFC 5545 §3.8.7.4; a
+ * change of wording alone is carried by the later DTSTAMP, RFC 5546 §2.1.5).
  */
-export function sequences(
-	cruiseId: string,
-	list: CalendarItem[],
-	d: Writer = appDb
+export function sequencesAgainst(
+	published: readonly PublishedItem[] | null,
+	list: readonly CalendarItem[]
 ): Map<string, number> {
+	const before = new Map((published ?? []).map((p) => [p.key, p]));
 	const out = new Map<string, number>();
-	d.transaction((tx) => {
-		for (const i of list) {
-			const dg = digest(i);
-			const row = tx
-				.select()
-				.from(calendarEntry)
-				.where(and(eq(calendarEntry.cruiseId, cruiseId), eq(calendarEntry.key, i.key)))
-				.get();
-			if (!row) {
-				tx.insert(calendarEntry).values({ cruiseId, key: i.key, digest: dg, sequence: 0 }).run();
-				out.set(i.key, 0);
-			} else if (row.digest !== dg) {
-				tx.update(calendarEntry)
-					.set({ digest: dg, sequence: row.sequence + 1, updatedAt: new Date() })
-					.where(and(eq(calendarEntry.cruiseId, cruiseId), eq(calendarEntry.key, i.key)))
-					.run();
-				out.set(i.key, row.sequence + 1);
-			} else out.set(i.key, row.sequence);
-		}
-	});
+	for (const i of list) {
+		const p = before.get(i.key);
+		out.set(i.key, !p ? 0 : whereWhen(p) === whereWhen(i) ? p.sequence : p.sequence + 1);
+	}
 	return out;
 }
 
@@ -150,15 +150,19 @@ export function uid(cruiseId: string, key: string) {
 	return `${key}.${cruiseId}@wakeline`;
 }
 
-/** The iCalendar text for a cruise's schedule. */
-export function ics(cruiseId: string, now = Date.now(), d: Writer = appDb): string {
-	const list = items(cruiseId, now, d);
-	const seq = sequences(cruiseId, list, d);
-	const code = timelines.load(cruiseId, d).cruise.code;
+/** The iCalendar text for the given items and SEQUENCE numbers, stamped at `stamp` (DTSTAMP). */
+export function render(
+	cruiseId: string,
+	code: string,
+	list: readonly CalendarItem[],
+	seq: ReadonlyMap<string, number>,
+	stamp: number
+): string {
 	const events: EventAttributes[] = list.map((i) => {
 		const common = {
 			uid: uid(cruiseId, i.key),
 			sequence: seq.get(i.key) ?? 0,
+			timestamp: stamp,
 			title: i.title,
 			description: i.description,
 			...(i.location ? { location: i.location } : {}),
@@ -183,4 +187,19 @@ export function ics(cruiseId: string, now = Date.now(), d: Writer = appDb): stri
 	});
 	if (error || !value) throw error ?? new Error('The calendar could not be written.');
 	return value;
+}
+
+/**
+ * The iCalendar text for a cruise's schedule as it stands now. Reading writes nothing: SEQUENCE
+ * numbers come from the last published version (an item moved since then shows one above it).
+ */
+export function ics(
+	cruiseId: string,
+	published: readonly PublishedItem[] | null,
+	now = Date.now(),
+	d: Pick<Db, 'select'> = appDb
+): string {
+	const list = items(cruiseId, now, d);
+	const code = timelines.load(cruiseId, d).cruise.code;
+	return render(cruiseId, code, list, sequencesAgainst(published, list), now);
 }

@@ -45,6 +45,8 @@ export const config = {
 		apiPort: e.STRIPE_API_PORT || '',
 		apiProtocol: (e.STRIPE_API_PROTOCOL || '') as '' | 'http' | 'https'
 	},
+	/** Milliseconds between reminder runs (documents and clearances falling due); 0 turns them off. */
+	reminderIntervalMs: int('REMINDER_INTERVAL_MS', 3_600_000),
 	signIn: {
 		windowMs: int('SIGNIN_WINDOW_MS', 15 * 60_000),
 		maxPerAccount: int('SIGNIN_MAX_PER_ACCOUNT', 5),

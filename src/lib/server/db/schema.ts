@@ -463,9 +463,65 @@ export const notice = sqliteTable(
 		lastError: text(),
 		messageId: text(),
 		sentAt: integer({ mode: 'timestamp_ms' }),
-		createdAt: createdAt()
+		createdAt: createdAt(),
+		// The recipient's account when the mail goes to a user (notices.send); null for invitations.
+		// No foreign key: SQLite cannot add one with ON DELETE to an existing table, and the log
+		// should outlive the account.
+		userId: text(),
+		// A notice with the same key is never queued twice (reminders, one mail per publication).
+		dedupeKey: text().unique(),
+		// Extra mail headers, e.g. RFC 8058 List-Unsubscribe for optional kinds.
+		headers: text({ mode: 'json' }).$type<Record<string, string>>()
 	},
-	(t) => [index('notice_due_idx').on(t.status, t.nextAttemptAt)]
+	(t) => [
+		index('notice_due_idx').on(t.status, t.nextAttemptAt),
+		index('notice_cruise_idx').on(t.cruiseId, t.createdAt)
+	]
+);
+
+// Optional notice kinds a user has turned off (no row: on). Schedule publications always go out.
+export const noticePreference = sqliteTable(
+	'notice_preference',
+	{
+		userId: text()
+			.notNull()
+			.references(() => user.id, { onDelete: 'cascade' }),
+		kind: text().notNull(),
+		enabled: integer({ mode: 'boolean' }).notNull(),
+		updatedAt: createdAt()
+	},
+	(t) => [uniqueIndex('notice_preference_pk').on(t.userId, t.kind)]
+);
+
+// One-click unsubscribe links (RFC 8058): single use, one preference each; only the hash is kept.
+export const unsubscribeToken = sqliteTable('unsubscribe_token', {
+	id: id(),
+	tokenHash: text().notNull().unique(),
+	userId: text()
+		.notNull()
+		.references(() => user.id, { onDelete: 'cascade' }),
+	kind: text().notNull(),
+	createdAt: createdAt(),
+	usedAt: integer({ mode: 'timestamp_ms' })
+});
+
+// A published schedule: a numbered, frozen copy of the calendar items with their SEQUENCE numbers
+// (RFC 5545 §3.8.7.4), who published it, when, and what changed since the version before.
+export const scheduleVersion = sqliteTable(
+	'schedule_version',
+	{
+		id: id(),
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		version: integer().notNull(),
+		publishedById: text().references(() => user.id, { onDelete: 'set null' }),
+		publishedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+		snapshot: text({ mode: 'json' }).notNull(),
+		changes: text({ mode: 'json' }).notNull(),
+		recipientCount: integer().notNull().default(0)
+	},
+	(t) => [uniqueIndex('schedule_version_pk').on(t.cruiseId, t.version)]
 );
 
 export const CLEARANCE_STATUSES = [
@@ -554,22 +610,6 @@ export const deadline = sqliteTable(
 	(t) => [index('deadline_cruise_idx').on(t.cruiseId)]
 );
 
-// Calendar bookkeeping: a stable key per exported item, the digest of what was last exported under
-// it and the SEQUENCE number (RFC 5545 §3.8.7.4), raised whenever the digest changes.
-export const calendarEntry = sqliteTable(
-	'calendar_entry',
-	{
-		cruiseId: text()
-			.notNull()
-			.references(() => cruise.id, { onDelete: 'cascade' }),
-		key: text().notNull(),
-		digest: text().notNull(),
-		sequence: integer().notNull().default(0),
-		updatedAt: createdAt()
-	},
-	(t) => [uniqueIndex('calendar_entry_pk').on(t.cruiseId, t.key)]
-);
-
 export const auditLog = sqliteTable(
 	'audit_log',
 	{
@@ -606,4 +646,5 @@ export type Clearance = typeof clearance.$inferSelect;
 export type ClearanceItem = typeof clearanceItem.$inferSelect;
 export type ClockChange = typeof clockChange.$inferSelect;
 export type Deadline = typeof deadline.$inferSelect;
-export type CalendarEntry = typeof calendarEntry.$inferSelect;
+export type NoticePreference = typeof noticePreference.$inferSelect;
+export type ScheduleVersion = typeof scheduleVersion.$inferSelect;

@@ -8,6 +8,7 @@ import { db as appDb } from '../db';
 import type { Db } from '../db/client';
 import { notice } from '../db/schema';
 import { newId } from '../ids';
+import { textToHtml } from './templates';
 
 export const MAX_ATTEMPTS = 8;
 const BASE_BACKOFF_MS = 30_000;
@@ -22,13 +23,21 @@ export interface OutgoingMail {
 	ics?: string;
 	kind: string;
 	cruiseId?: string | null;
+	/** The recipient's account, for the notice log and preferences. */
+	userId?: string | null;
+	/** A second enqueue with the same key is ignored (returns null). */
+	dedupeKey?: string | null;
+	/** Extra headers, e.g. RFC 8058 List-Unsubscribe. */
+	headers?: Record<string, string> | null;
 }
 
 type Tx = Pick<Db, 'insert'>;
 
-export function enqueue(tx: Tx, mail: OutgoingMail) {
+/** Queues a mail; returns its id, or null when one with the same dedupeKey is already there. */
+export function enqueue(tx: Tx, mail: OutgoingMail): string | null {
 	const id = newId();
-	tx.insert(notice)
+	const res = tx
+		.insert(notice)
 		.values({
 			id,
 			cruiseId: mail.cruiseId ?? null,
@@ -38,9 +47,14 @@ export function enqueue(tx: Tx, mail: OutgoingMail) {
 			text: mail.text,
 			html: mail.html ?? null,
 			icsAttachment: mail.ics ?? null,
+			userId: mail.userId ?? null,
+			dedupeKey: mail.dedupeKey ?? null,
+			headers: mail.headers ?? null,
 			nextAttemptAt: new Date()
 		})
+		.onConflictDoNothing({ target: notice.dedupeKey })
 		.run();
+	if (res.changes === 0) return null;
 	kick();
 	return id;
 }
@@ -86,7 +100,9 @@ async function doSweep(db: Db, now: Date): Promise<number> {
 				to: m.toAddress,
 				subject: m.subject,
 				text: m.text,
-				html: m.html ?? undefined,
+				// Every mail has an HTML part beside the plain text.
+				html: m.html ?? textToHtml(m.text),
+				headers: m.headers ?? undefined,
 				icalEvent: m.icsAttachment
 					? { filename: 'schedule.ics', method: 'PUBLISH', content: m.icsAttachment }
 					: undefined

@@ -3,9 +3,11 @@ import { message, setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from '$lib/schemas/messages';
 import { changePasswordSchema, profileSchema, tokenSchema } from '$lib/schemas/auth';
+import { noticePreferencesSchema } from '$lib/schemas/notices';
 import { createApiToken, listApiTokens, revokeApiToken } from '$lib/server/auth';
 import { db } from '$lib/server/db';
 import * as guards from '$lib/server/guards';
+import * as notices from '$lib/server/notices';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -17,7 +19,10 @@ export const load: PageServerLoad = async (event) => {
 		tokens: listApiTokens(db, user.id),
 		profileForm: await superValidate({ name: user.name }, zod4(profileSchema)),
 		passwordForm: await superValidate(zod4(changePasswordSchema)),
-		tokenForm: await superValidate(zod4(tokenSchema))
+		tokenForm: await superValidate(zod4(tokenSchema)),
+		noticeForm: await superValidate(notices.preferences(user.id), zod4(noticePreferencesSchema), {
+			id: 'notices'
+		})
 	};
 };
 
@@ -64,5 +69,15 @@ export const actions: Actions = {
 		if (!form.valid || !revokeApiToken(db, user.id, form.data.tokenId))
 			return fail(404, { problem: 'No such token.' });
 		return { done: 'Token revoked.' };
+	},
+	notices: async (event) => {
+		const user = guards.requireUser(event);
+		const form = await superValidate(event.request, zod4(noticePreferencesSchema), {
+			id: 'notices'
+		});
+		if (!form.valid) return fail(400, { noticeForm: form });
+		for (const kind of notices.OPTIONAL_KINDS)
+			notices.setPreference(user.id, kind, form.data[kind]);
+		return message(form, { type: 'ok', text: 'Notice settings saved.' });
 	}
 };

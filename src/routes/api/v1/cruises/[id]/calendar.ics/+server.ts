@@ -1,12 +1,12 @@
 import { api } from '$lib/server/api';
-import * as calendar from '$lib/server/calendar';
 import * as guards from '$lib/server/guards';
+import * as publications from '$lib/server/publications';
 import type { RequestHandler } from './$types';
 
-/** The schedule as iCalendar (RFC 5545); each export records SEQUENCE numbers for changed items. */
+/** The schedule as iCalendar (RFC 5545). Read-only: SEQUENCE numbers come from published versions. */
 export const GET: RequestHandler = api((event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
-	const text = calendar.ics(access.cruise.id);
+	const text = publications.calendarText(access.cruise.id);
 	return new Response(text, {
 		headers: {
 			'content-type': 'text/calendar; charset=utf-8',
