@@ -66,21 +66,45 @@ export function yyyymmdd(v: number, column = 'DATE'): [number, number, number] {
 	return [y, m, d];
 }
 
+const WANTED = ['TIMEZONE', 'DATE', 'TIME', 'LAT', 'LON', 'CORR_DEPTH'] as const;
+
 export class Mgd77tRows implements RowParser {
 	private idx: Record<string, number> | null = null;
+	/** Fields up to the last column we read (the rest of the row is never split). */
+	private last = 0;
+	private readonly f: string[] = [];
+	private dayKey = NaN;
+	private dayS = 0;
+
+	/** Splits the row at tabs up to column `last` only. */
+	private split(line: string): string[] {
+		const f = this.f;
+		let start = 0;
+		for (let k = 0; k <= this.last; k++) {
+			const tab = line.indexOf('\t', start);
+			f[k] = tab < 0 ? line.slice(start) : line.slice(start, tab);
+			if (tab < 0) {
+				for (let j = k + 1; j <= this.last; j++) f[j] = '';
+				break;
+			}
+			start = tab + 1;
+		}
+		return f;
+	}
 
 	row(line: string, out: FixOut): boolean {
-		const f = line.split('\t');
 		if (!this.idx) {
+			const f = line.split('\t');
 			const names = f.map((s) => s.trim().toUpperCase());
 			const idx: Record<string, number> = {};
-			for (const c of ['TIMEZONE', 'DATE', 'TIME', 'LAT', 'LON', 'CORR_DEPTH'])
-				idx[c] = names.indexOf(c);
+			for (const c of WANTED) idx[c] = names.indexOf(c);
 			const missing = ['LAT', 'LON', 'CORR_DEPTH'].filter((c) => idx[c] < 0);
 			if (missing.length) throw new RowError(missing[0], `the header has no ${missing.join(', ')}`);
 			this.idx = idx;
+			this.last = Math.max(...WANTED.map((c) => idx[c]));
 			return false;
 		}
+		const f = this.split(line);
 		const x = this.idx;
 		const get = (c: string) => (x[c] >= 0 ? (f[x[c]] ?? '') : '');
 		out.lat = numberField(get('LAT'), 'LAT');
@@ -89,9 +113,13 @@ export class Mgd77tRows implements RowParser {
 		const date = numberField(get('DATE'), 'DATE');
 		const time = numberField(get('TIME'), 'TIME');
 		if (!Number.isNaN(date) && !Number.isNaN(time)) {
-			const [y, m, d] = yyyymmdd(date);
+			if (date !== this.dayKey) {
+				const [y, m, d] = yyyymmdd(date);
+				this.dayS = utcSeconds(y, m, d, 0);
+				this.dayKey = date;
+			}
 			const tz = numberField(get('TIMEZONE'), 'TIMEZONE');
-			out.timeS = utcSeconds(y, m, d, mgd77tTimeOfDay(time)) + (Number.isNaN(tz) ? 0 : tz) * 3600;
+			out.timeS = this.dayS + mgd77tTimeOfDay(time) + (Number.isNaN(tz) ? 0 : tz) * 3600;
 		}
 		return true;
 	}

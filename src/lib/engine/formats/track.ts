@@ -232,13 +232,12 @@ export class TrackReader {
 
 	private line(line: string) {
 		this.lineNo++;
+		if (line.length === 0 || (line.charCodeAt(0) <= 32 && line.trim() === '')) return;
 		if (!this.started) {
-			if (line.trim() === '') return;
 			this.started = true;
 			this.format ??= detectTrackFormat(line, this.options.filename);
 			this.parser = parserFor(this.format);
 		}
-		if (line.trim() === '') return;
 		const f = this.fix;
 		f.depthM = NaN;
 		f.timeS = NaN;

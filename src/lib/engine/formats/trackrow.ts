@@ -26,10 +26,12 @@ export interface RowParser {
 
 /** A number field: '' → NaN (missing); anything else not a finite number → RowError. */
 export function numberField(text: string, column: string): number {
-	const s = text.trim();
-	if (s === '') return NaN;
-	const v = Number(s);
-	if (!Number.isFinite(v)) throw new RowError(column, `"${s.slice(0, 40)}" is not a number`);
+	if (text.length === 0) return NaN;
+	// Number() ignores surrounding white space but reads a blank field as 0
+	const v = Number(text);
+	if (v === 0 && text.trim() === '') return NaN;
+	if (!Number.isFinite(v))
+		throw new RowError(column, `"${text.trim().slice(0, 40)}" is not a number`);
 	return v;
 }
 

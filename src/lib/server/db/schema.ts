@@ -3,6 +3,7 @@
 // money in minor units with an ISO 4217 currency, geometry as GeoJSON-order [lon, lat] JSON arrays.
 import { sql } from 'drizzle-orm';
 import {
+	blob,
 	index,
 	integer,
 	real,
@@ -528,6 +529,34 @@ export const auditLog = sqliteTable(
 	(t) => [index('audit_cruise_idx').on(t.cruiseId, t.createdAt)]
 );
 
+// ---------------------------------------------------------------- observed tracks
+
+export const TRACK_FORMATS = ['mgd77t', 'mgd77', 'csv', 'xyz'] as const;
+
+// An observed track (underway soundings) uploaded to a cruise. The fixes are one packed BLOB of
+// little-endian Float64 columns [lon × n, lat × n, depth × n, time × n] (NaN = missing), not a
+// row per fix: a million fixes are 32 MB in one row.
+export const observedTrack = sqliteTable(
+	'observed_track',
+	{
+		id: id(),
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		name: text().notNull(),
+		format: text({ enum: TRACK_FORMATS }).notNull(),
+		points: integer().notNull(),
+		fixes: blob({ mode: 'buffer' }).notNull(),
+		warnings: text({ mode: 'json' }).$type<
+			{ code: string; message: string; row: number; count: number }[]
+		>(),
+		depthsFlipped: integer({ mode: 'boolean' }).notNull().default(false),
+		createdById: text().references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt()
+	},
+	(t) => [index('observed_track_cruise_idx').on(t.cruiseId, t.createdAt)]
+);
+
 export type User = typeof user.$inferSelect;
 export type Session = typeof session.$inferSelect;
 export type ApiToken = typeof apiToken.$inferSelect;
@@ -552,3 +581,4 @@ export type ClearanceItem = typeof clearanceItem.$inferSelect;
 export type ClockChange = typeof clockChange.$inferSelect;
 export type Deadline = typeof deadline.$inferSelect;
 export type CalendarEntry = typeof calendarEntry.$inferSelect;
+export type ObservedTrack = typeof observedTrack.$inferSelect;
