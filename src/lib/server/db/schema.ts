@@ -551,10 +551,15 @@ export const observedTrack = sqliteTable(
 			{ code: string; message: string; row: number; count: number }[]
 		>(),
 		depthsFlipped: integer({ mode: 'boolean' }).notNull().default(false),
+		// SHA-256 of the uploaded bytes: the same file twice on one cruise is refused (409).
+		sha256: text().notNull(),
 		createdById: text().references(() => user.id, { onDelete: 'set null' }),
 		createdAt: createdAt()
 	},
-	(t) => [index('observed_track_cruise_idx').on(t.cruiseId, t.createdAt)]
+	(t) => [
+		index('observed_track_cruise_idx').on(t.cruiseId, t.createdAt),
+		uniqueIndex('observed_track_file_idx').on(t.cruiseId, t.sha256)
+	]
 );
 
 export type User = typeof user.$inferSelect;
