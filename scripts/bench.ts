@@ -192,7 +192,11 @@ const trackNotes: string[] = [];
 	runs.sort((p, q) => p[2] - q[2]);
 	const [readMs, resMs, totalMs, n, readCpu, resCpu, totalCpu] = runs[1];
 	const fixesMb = (N * 4 * 8) / 2 ** 20;
-	report.push([`(e) read ${(bytes / 2 ** 20).toFixed(0)} MiB MGD77T, ${n} fixes (streamed)`, [readMs, readCpu, runs[0][0]], '']);
+	report.push([
+		`(e) read ${(bytes / 2 ** 20).toFixed(0)} MiB MGD77T, ${n} fixes (streamed)`,
+		[readMs, readCpu, runs[0][0]],
+		''
+	]);
 	report.push([`(e) residuals for ${n} fixes`, [resMs, resCpu, runs[0][1]], '']);
 	report.push([`(e) read + residuals, 1 000 000 fixes`, [totalMs, totalCpu, runs[0][2]], '< 5000']);
 	trackNotes.push(

@@ -33,7 +33,7 @@ afterAll(async () => {
 });
 
 const base = () => `/api/v1/cruises/${cruiseId}/tracks`;
-const upload = (cookie: string, body: string | Uint8Array, query = 'filename=line.m77t') =>
+const upload = (cookie: string, body: string | Blob, query = 'filename=line.m77t') =>
 	fetch(`${srv.url}${base()}?${query}`, {
 		method: 'POST',
 		body,
@@ -132,7 +132,7 @@ describe('tracks API', () => {
 		const dup = await upload(participant, crossing(300));
 		expect(dup.status).toBe(409);
 		expect((await dup.json()).error.details.trackId).toBe(trackId);
-		const bin = await upload(participant, new Uint8Array([0x50, 0x4b, 3, 4, 0, 0, 0]));
+		const bin = await upload(participant, new Blob([new Uint8Array([0x50, 0x4b, 3, 4, 0, 0, 0])]));
 		expect(bin.status).toBe(415);
 		// a declared body over the 60 MiB limit is refused before it is read
 		const status = await new Promise<{ status: number; body: string }>((resolve, reject) => {

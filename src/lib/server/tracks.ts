@@ -114,6 +114,16 @@ export function list(cruiseId: string, conn: Pick<Db, 'select'> = appDb): TrackS
 		.map(summary);
 }
 
+/** Ids of the tracks `userId` uploaded to the cruise (they may delete those). */
+export function ownedBy(cruiseId: string, userId: string): string[] {
+	return appDb
+		.select({ id: observedTrack.id })
+		.from(observedTrack)
+		.where(and(eq(observedTrack.cruiseId, cruiseId), eq(observedTrack.createdById, userId)))
+		.all()
+		.map((r) => r.id);
+}
+
 export function get(cruiseId: string, trackId: string): TrackSummary & { fixes: TrackFixes } {
 	const r = appDb
 		.select()
