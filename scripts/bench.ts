@@ -138,7 +138,6 @@ const trackNotes: string[] = [];
 	const rows: string[] = [MGD77T_COLUMNS.join('\t')];
 	const perLine = 6000;
 	const t0 = Date.UTC(2020, 0, 1) / 1000;
-	let text = '';
 	writeFileSync(file, '');
 	for (let i = 0; i < N; i++) {
 		const line = Math.floor(i / perLine);
@@ -149,13 +148,11 @@ const trackNotes: string[] = [];
 		const depth = 2600 + 365 * Math.sqrt(Math.abs(x) / 11.5) + 150 + ((i * 7919) % 200) - 100;
 		rows.push(mgd77tRow('BENCH01', lon, lat, depth, t0 + i * 6));
 		if (rows.length >= 20_000) {
-			text = rows.join('\n') + '\n';
-			writeFileSync(file, text, { flag: 'a' });
+			writeFileSync(file, rows.join('\n') + '\n', { flag: 'a' });
 			rows.length = 0;
 		}
 	}
 	if (rows.length) writeFileSync(file, rows.join('\n') + '\n', { flag: 'a' });
-	text = '';
 	const bytes = statSync(file).size;
 	const ridges = [{ axis: axis(500), fullRateMmYr: 23 }];
 	const mem = () => {
@@ -172,10 +169,9 @@ const trackNotes: string[] = [];
 	};
 	const runs: number[][] = [];
 	let peak = 0;
-	let base = 0;
 	for (let run = 0; run < 3; run++) {
 		(globalThis as { gc?: () => void }).gc?.();
-		base = mem();
+		const base = mem();
 		const c0 = process.cpuUsage();
 		const a0 = performance.now();
 		const read = await readOnce();

@@ -6,17 +6,18 @@ const file = (text: string, name = 'line.xyz') => new File([text], name);
 describe('track upload state', () => {
 	it('reports progress, then the track the server read', async () => {
 		const seen: number[] = [];
-		let up!: TrackUpload;
+		const ref: { up?: TrackUpload } = {};
 		const transport: Transport = async (url, f, onProgress) => {
 			expect(url).toBe('/api/v1/cruises/c1/tracks?filename=line.xyz');
 			onProgress(5, 10);
-			seen.push(up.progress);
+			seen.push(ref.up!.progress);
 			onProgress(10, 10);
-			seen.push(up.progress);
-			expect(up.phase).toBe('reading');
+			seen.push(ref.up!.progress);
+			expect(ref.up!.phase).toBe('reading');
 			return { status: 201, body: { track: { id: 't', name: 'line', format: 'xyz', points: 2 } } };
 		};
-		up = new TrackUpload('c1', transport);
+		const up = new TrackUpload('c1', transport);
+		ref.up = up;
 		up.choose(file('1 2 3\n1 2 4\n'));
 		const track = await up.send();
 		expect(seen).toEqual([0.5, 1]);

@@ -62,6 +62,8 @@ export class TrackUpload {
 		this.askFlip = false;
 		this.sent = 0;
 		this.total = file.size;
+		// A one-off query string, not reactive state.
+		// eslint-disable-next-line svelte/prefer-svelte-reactivity
 		const q = new URLSearchParams({ filename: file.name });
 		if (flipDepths) q.set('flipDepths', '1');
 		try {
@@ -103,7 +105,7 @@ export const xhrTransport: Transport = (url, file, onProgress) =>
 		xhr.upload.onprogress = (e) => onProgress(e.loaded, e.lengthComputable ? e.total : file.size);
 		xhr.upload.onload = () => onProgress(file.size, file.size);
 		xhr.onload = () => {
-			let body: unknown = null;
+			let body: unknown;
 			try {
 				body = JSON.parse(xhr.responseText);
 			} catch {
