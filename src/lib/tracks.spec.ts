@@ -3,6 +3,7 @@ import {
 	TRACK_UPLOAD_LIMIT,
 	checkTrackFile,
 	histogramBars,
+	paddedDomain,
 	refusal,
 	residualDomain,
 	signedM,
@@ -46,5 +47,10 @@ describe('track page helpers', () => {
 		expect(signedM(180)).toBe('+180 m');
 		expect(signedM(-42.4)).toBe('−42 m');
 		expect(signedM(null)).toBe('—');
+	});
+
+	it('pads a plotting domain, also for a track along one parallel', () => {
+		expect(paddedDomain([-29.6, -29.6])).toEqual([-29.655, -29.545]);
+		expect(paddedDomain([0, 10])).toEqual([-0.5, 10.5]);
 	});
 });

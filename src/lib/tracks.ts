@@ -87,3 +87,17 @@ export function signedM(v: number | null | undefined, digits = 0): string {
 	const s = Math.abs(v).toFixed(digits);
 	return `${v > 0 ? '+' : v < 0 ? '−' : ''}${s} m`;
 }
+
+/** A plotting domain around values, at least `minSpan` wide (a track along a parallel has none). */
+export function paddedDomain(values: readonly number[], minSpan = 0.1): [number, number] {
+	let lo = Infinity;
+	let hi = -Infinity;
+	for (const v of values) {
+		if (v < lo) lo = v;
+		if (v > hi) hi = v;
+	}
+	if (!Number.isFinite(lo)) return [0, 1];
+	const span = Math.max(hi - lo, minSpan);
+	const mid = 0.5 * (lo + hi);
+	return [mid - 0.55 * span, mid + 0.55 * span];
+}
