@@ -432,7 +432,7 @@ export function residuals(
 	for (let i = 0; i < n; i += step) push(i);
 	if ((n - 1) % step !== 0) push(n - 1);
 	return {
-		track: { ...t, fixes: undefined } as unknown as TrackSummary,
+		track: trackOnly(t),
 		points,
 		totalPoints: n,
 		stats: stat(r.stats),
@@ -449,6 +449,11 @@ export function residuals(
 		segments: ridges.rows.map(segmentInfo),
 		caution: RESIDUAL_CAUTION
 	};
+}
+
+function trackOnly(t: TrackSummary & { fixes: TrackFixes }): TrackSummary {
+	const { fixes: _fixes, ...track } = t;
+	return track;
 }
 
 function segmentInfo(s: RidgeSegment) {
