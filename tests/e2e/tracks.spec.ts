@@ -69,7 +69,9 @@ test('the chief scientist calibrates the northern segment from the demo crossing
 	// the demo writes the model + 180 m, a seamount and noise
 	const mean = page.getByTestId('residual-stats').locator('dd').nth(1);
 	await expect(mean).toHaveText(/^\+1[5-9]\d m$/);
-	await page.getByLabel('Ridge segment', { exact: true }).selectOption({ label: 'Sallow Ridge north' });
+	await page
+		.getByLabel('Ridge segment', { exact: true })
+		.selectOption({ label: 'Sallow Ridge north' });
 	await page.getByRole('button', { name: 'Fit to this track' }).click();
 	await expect(page.getByTestId('calibration')).toContainText('Fitted');
 	await page.getByRole('button', { name: 'Apply to Sallow Ridge north' }).click();
