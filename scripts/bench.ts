@@ -6,10 +6,13 @@
  *     should grow about log(n);
  * (b) a 500 × 500 predicted-depth grid;
  * (c) one melting column (uncached);
- * (d) one depth-adaptive line plan over a 100 × 60 km area.
+ * (d) one depth-adaptive line plan over a 100 × 60 km area;
  * (e) adversarial axis shapes at the shared size limits (engine/limits.ts): a dense zig-zag, a
  *     wide zig-zag, a spiral and a comb, each 2000 vertices within 10 000 km; the index build and a
- *     profile, then the exact nearest-point queries alone, which should stay near log(n).
+ *     profile, then the exact nearest-point queries alone, which should stay near log(n);
+ * (f) a 1 000 000-fix MGD77T file (written to a temporary file first) streamed from disk through
+ *     the track reader in 64 KiB chunks, then its residual depths computed (target < 5 s), with the
+ *     memory the fixes and the residual arrays take beside it.
  */
 import { cpus, loadavg } from 'node:os';
 import { depthProfileForRidges, depthGrid, RidgeDepthModel } from '../src/lib/engine/profile';
@@ -17,6 +20,12 @@ import { PolylineIndex, direct, sampleLine, type LonLat } from '../src/lib/engin
 import { meltColumn } from '../src/lib/engine/melt';
 import { planSurvey } from '../src/lib/engine/survey';
 import { axisProblem, SIZES } from '../src/lib/engine/limits';
+import { createReadStream, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { TrackReader } from '../src/lib/engine/formats/track';
+import { mgd77tRow, MGD77T_COLUMNS } from '../src/lib/engine/formats/mgd77t';
+import { trackResiduals } from '../src/lib/engine/residual';
 
 function median(xs: number[]): number {
 	const s = xs.slice().sort((a, b) => a - b);
@@ -175,6 +184,79 @@ for (const n of [50, 500, 5000]) {
 		});
 		report.push([`(e) ${name}: ${s.count} exact nearest-point queries`, q, '']);
 	}
+// (f) 1 000 000 MGD77T fixes: read (streamed) + residuals
+const trackNotes: string[] = [];
+{
+	const N = 1_000_000;
+	const dir = mkdtempSync(join(tmpdir(), 'wakeline-bench-'));
+	const file = join(dir, 'track.m77t');
+	// Zig-zag lines 300 km across the axis, 50 m between fixes, each line 5 km further north.
+	const rows: string[] = [MGD77T_COLUMNS.join('\t')];
+	const perLine = 6000;
+	const t0 = Date.UTC(2020, 0, 1) / 1000;
+	writeFileSync(file, '');
+	for (let i = 0; i < N; i++) {
+		const line = Math.floor(i / perLine);
+		const k = i % perLine;
+		const x = (line % 2 ? perLine - k : k) * 0.05 - 150; // km from the axis
+		const lat = 22 + line * 0.045;
+		const lon = -44.8 + x / (111.32 * Math.cos((lat * Math.PI) / 180));
+		const depth = 2600 + 365 * Math.sqrt(Math.abs(x) / 11.5) + 150 + ((i * 7919) % 200) - 100;
+		rows.push(mgd77tRow('BENCH01', lon, lat, depth, t0 + i * 6));
+		if (rows.length >= 20_000) {
+			writeFileSync(file, rows.join('\n') + '\n', { flag: 'a' });
+			rows.length = 0;
+		}
+	}
+	if (rows.length) writeFileSync(file, rows.join('\n') + '\n', { flag: 'a' });
+	const bytes = statSync(file).size;
+	const ridges = [{ axis: axis(500), fullRateMmYr: 23 }];
+	const mem = () => {
+		const m = process.memoryUsage();
+		return m.heapUsed + m.arrayBuffers;
+	};
+	const readOnce = async () => {
+		const reader = new TrackReader({ filename: 'track.m77t' });
+		const decoder = new TextDecoder();
+		for await (const chunk of createReadStream(file, { highWaterMark: 64 * 1024 }))
+			reader.push(decoder.decode(chunk as Buffer, { stream: true }));
+		reader.push(decoder.decode());
+		return reader.end();
+	};
+	const runs: number[][] = [];
+	let peak = 0;
+	for (let run = 0; run < 3; run++) {
+		(globalThis as { gc?: () => void }).gc?.();
+		const base = mem();
+		const c0 = process.cpuUsage();
+		const a0 = performance.now();
+		const read = await readOnce();
+		const a1 = performance.now();
+		const c1 = process.cpuUsage(c0);
+		const r = trackResiduals(read.fixes, ridges);
+		const a2 = performance.now();
+		const c2 = process.cpuUsage(c0);
+		peak = Math.max(peak, mem() - base);
+		const cpu = (c: NodeJS.CpuUsage) => (c.user + c.system) / 1000;
+		runs.push([a1 - a0, a2 - a1, a2 - a0, r.stats.n, cpu(c1), cpu(c2) - cpu(c1), cpu(c2)]);
+	}
+	rmSync(dir, { recursive: true, force: true });
+	runs.sort((p, q) => p[2] - q[2]);
+	const [readMs, resMs, totalMs, n, readCpu, resCpu, totalCpu] = runs[1];
+	const fixesMb = (N * 4 * 8) / 2 ** 20;
+	report.push([
+		`(f) read ${(bytes / 2 ** 20).toFixed(0)} MiB MGD77T, ${n} fixes (streamed)`,
+		[readMs, readCpu, runs[0][0]],
+		''
+	]);
+	report.push([`(f) residuals for ${n} fixes`, [resMs, resCpu, runs[0][1]], '']);
+	report.push([`(f) read + residuals, 1 000 000 fixes`, [totalMs, totalCpu, runs[0][2]], '< 5000']);
+	trackNotes.push(
+		`(f) memory held after read + residuals: ${(peak / 2 ** 20).toFixed(0)} MiB ` +
+			`(the fixes themselves: ${fixesMb.toFixed(0)} MiB as four Float64 columns; residual, ` +
+			`prediction, band, age, distance: ${((N * 8 * 8 + N * 4) / 2 ** 20).toFixed(0)} MiB); ` +
+			`file ${(bytes / 2 ** 20).toFixed(0)} MiB never held whole`
+	);
 }
 
 const load = loadavg()[0];
@@ -190,3 +272,4 @@ for (const [name, [wall, cpu, best], target] of report) {
 			(target ? `   target ${target}` : '')
 	);
 }
+for (const note of trackNotes) console.log(note);

@@ -12,6 +12,12 @@ import { newId } from '../src/lib/server/ids';
 import * as timelines from '../src/lib/server/timeline';
 import { operatingDays } from '../src/lib/engine/timeline';
 import { lineAmounts, totalMinor } from '../src/lib/money';
+import * as tracks from '../src/lib/server/tracks';
+import { ridgeInputs } from '../src/lib/server/plancompute';
+import { RidgeDepthModel } from '../src/lib/engine/profile';
+import { readTrack } from '../src/lib/engine/formats/track';
+import { writeMgd77t } from '../src/lib/engine/formats/mgd77t';
+import { createHash } from 'node:crypto';
 
 export const DEMO_PASSWORD = 'ridge-crest-2027';
 
@@ -503,6 +509,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	});
 	seedSchedule(db, sail);
 	seedPublication(db);
+	seedTrack(db);
 	return true;
 }
 
@@ -559,6 +566,49 @@ function seedPublication(db: Db) {
 		.where(and(eq(t.planItem.cruiseId, cruiseId), eq(t.planItem.kind, 'port_call')))
 		.get()!;
 	timelines.setPortCallHours(chief, cruiseId, call.id, (call.portCallHours ?? 36) + 6, db);
+ * An invented earlier crossing of the northern segment, east–west along 29.8°S, one fix a minute
+ * at 10 kn: the cruise's own model plus 180 m (a slightly thinner crust than assumed), a
+ * 350 m-high seamount on the western flank and deterministic noise of ±60 m, written as MGD77T
+ * and read back through the same reader as an upload.
+ */
+function seedTrack(db: Db) {
+	const cruiseId = demoCruiseId(db)!;
+	const chief = db.select().from(t.user).where(eq(t.user.email, 'chief@example.org')).get()!.id;
+	const ridges = db
+		.select()
+		.from(t.ridgeSegment)
+		.where(eq(t.ridgeSegment.cruiseId, cruiseId))
+		.all();
+	const c = db.select().from(t.cruise).where(eq(t.cruise.id, cruiseId)).get()!;
+	const model = new RidgeDepthModel(ridgeInputs(ridges), { model: c.depthModel });
+	const n = 800;
+	const lon = new Float64Array(n);
+	const lat = new Float64Array(n).fill(-29.8);
+	const depthM = new Float64Array(n);
+	const timeS = new Float64Array(n);
+	const start = Date.UTC(2019, 4, 14, 6, 0) / 1000;
+	let seed = 20190514;
+	for (let i = 0; i < n; i++) {
+		seed = (seed * 1664525 + 1013904223) >>> 0;
+		const noise = (seed / 2 ** 32 - 0.5) * 120;
+		// 10 kn for a minute is 308.7 m; along 29.8°S a degree of longitude is about 96.6 km
+		lon[i] = -144.7 - (i * 0.3087) / 96.6;
+		const seamount = -350 * Math.exp(-(((lon[i] + 146.9) / 0.05) ** 2));
+		depthM[i] =
+			Math.round((model.depthAt(lon[i], lat[i]).depthM + 180 + seamount + noise) * 10) / 10;
+		timeS[i] = start + i * 60;
+	}
+	const text = writeMgd77t('WL190514', { lon, lat, depthM, timeS });
+	tracks.create(
+		chief,
+		cruiseId,
+		{
+			name: 'Earlier crossing, May 2019',
+			read: readTrack(text, { format: 'mgd77t' }),
+			sha256: createHash('sha256').update(text).digest('hex')
+		},
+		db
+	);
 }
 
 /**

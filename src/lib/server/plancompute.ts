@@ -3,7 +3,7 @@
 import { DEFAULT_VESSEL } from '$lib/defaults';
 import type { DepthModelId, PredictedDepth } from '$lib/engine/depth';
 import { lineLengthM, sampleLine } from '$lib/engine/geodesy';
-import { RidgeDepthModel } from '$lib/engine/profile';
+import { RidgeDepthModel, type RidgeInput } from '$lib/engine/profile';
 import { hoursAt } from '$lib/engine/time';
 import { stationHours, stationSettings } from '$lib/engine/stations';
 import type { Cruise, RidgeSegment, Station, SurveyLine, Vessel } from './db/schema';
@@ -21,6 +21,17 @@ export interface PlanSettings {
 
 /** Lines are sampled every kilometre, but never more than this many samples per line. */
 const MAX_SAMPLES = 2000;
+
+/** The engine's ridge settings for a cruise's stored segments (every prediction uses these). */
+export function ridgeInputs(ridges: RidgeSegment[]): RidgeInput[] {
+	return ridges.map((x) => ({
+		axis: x.axis,
+		fullRateMmYr: x.fullRateMmYr,
+		asymmetry: x.asymmetry,
+		potentialTemperatureC: x.potentialTemperatureC ?? undefined,
+		axialDepthM: x.axialDepthM ?? undefined
+	}));
+}
 
 export function planSettings(r: {
 	cruise: Pick<Cruise, 'depthModel'>;
@@ -40,16 +51,7 @@ export function planSettings(r: {
 	const model = r.cruise.depthModel;
 	if (r.ridges.length === 0) return { model, vessel, depthAt: () => null, depthsAlong: () => null };
 
-	const depth = new RidgeDepthModel(
-		r.ridges.map((x) => ({
-			axis: x.axis,
-			fullRateMmYr: x.fullRateMmYr,
-			asymmetry: x.asymmetry,
-			potentialTemperatureC: x.potentialTemperatureC ?? undefined,
-			axialDepthM: x.axialDepthM ?? undefined
-		})),
-		{ model }
-	);
+	const depth = new RidgeDepthModel(ridgeInputs(r.ridges), { model });
 	return {
 		model,
 		vessel,

@@ -3,6 +3,7 @@
 // money in minor units with an ISO 4217 currency, geometry as GeoJSON-order [lon, lat] JSON arrays.
 import { sql } from 'drizzle-orm';
 import {
+	blob,
 	index,
 	integer,
 	real,
@@ -623,6 +624,39 @@ export const auditLog = sqliteTable(
 	(t) => [index('audit_cruise_idx').on(t.cruiseId, t.createdAt)]
 );
 
+// ---------------------------------------------------------------- observed tracks
+
+export const TRACK_FORMATS = ['mgd77t', 'mgd77', 'csv', 'xyz'] as const;
+
+// An observed track (underway soundings) uploaded to a cruise. The fixes are one packed BLOB of
+// little-endian Float64 columns [lon × n, lat × n, depth × n, time × n] (NaN = missing), not a
+// row per fix: a million fixes are 32 MB in one row.
+export const observedTrack = sqliteTable(
+	'observed_track',
+	{
+		id: id(),
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		name: text().notNull(),
+		format: text({ enum: TRACK_FORMATS }).notNull(),
+		points: integer().notNull(),
+		fixes: blob({ mode: 'buffer' }).notNull(),
+		warnings: text({ mode: 'json' }).$type<
+			{ code: string; message: string; row: number; count: number }[]
+		>(),
+		depthsFlipped: integer({ mode: 'boolean' }).notNull().default(false),
+		// SHA-256 of the uploaded bytes: the same file twice on one cruise is refused (409).
+		sha256: text().notNull(),
+		createdById: text().references(() => user.id, { onDelete: 'set null' }),
+		createdAt: createdAt()
+	},
+	(t) => [
+		index('observed_track_cruise_idx').on(t.cruiseId, t.createdAt),
+		uniqueIndex('observed_track_file_idx').on(t.cruiseId, t.sha256)
+	]
+);
+
 export type User = typeof user.$inferSelect;
 export type Session = typeof session.$inferSelect;
 export type ApiToken = typeof apiToken.$inferSelect;
@@ -648,3 +682,4 @@ export type ClockChange = typeof clockChange.$inferSelect;
 export type Deadline = typeof deadline.$inferSelect;
 export type NoticePreference = typeof noticePreference.$inferSelect;
 export type ScheduleVersion = typeof scheduleVersion.$inferSelect;
+export type ObservedTrack = typeof observedTrack.$inferSelect;
