@@ -46,7 +46,7 @@ async function uploadAs(email: string, query: string, bytes: Uint8Array) {
 	return fetch(`${srv.url}/api/v1/cruises/${cruiseId}/documents?${query}`, {
 		method: 'POST',
 		headers: { cookie: await cookieFor(email), 'content-type': 'application/octet-stream' },
-		body: bytes
+		body: new Blob([bytes as Uint8Array<ArrayBuffer>])
 	});
 }
 

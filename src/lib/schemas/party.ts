@@ -69,16 +69,6 @@ export const reviewSchema = z
 		path: ['reason']
 	});
 
-export const requirementsSchema = z.object({
-	kinds: z.array(z.enum(DOCUMENT_KINDS)).max(DOCUMENT_KINDS.length).default([]),
-	days: z
-		.number({ message: 'Enter days.' })
-		.int('Whole days.')
-		.min(0, 'Days cannot be negative.')
-		.max(365, 'At most a year before sailing.')
-		.default(30)
-});
-
 // Plain text only: names and numbers as printed in the passport. No leading = + - @ so that the
 // persons-on-board CSV cannot be read as a formula by a spreadsheet.
 const plain = (label: string, max: number) =>
@@ -100,3 +90,55 @@ export const travelProfileSchema = z.object({
 	passportExpiry: isoDate
 });
 export type TravelProfileInput = z.infer<typeof travelProfileSchema>;
+
+// ---------------------------------------------------------------- page forms
+
+export const idSchema = z.object({ id: z.string().min(1).max(64) });
+
+export const decideFormSchema = z.object({
+	id: z.string().min(1).max(64),
+	status: z.enum(DECISIONS, { message: 'Choose confirm, waitlist or decline.' }),
+	message: z.string().trim().max(1000, 'At most 1000 characters.').optional()
+});
+
+export const reviewFormSchema = z
+	.object({
+		id: z.string().min(1).max(64),
+		status: z.enum(['accepted', 'rejected']),
+		reason: z.string().trim().max(500, 'At most 500 characters.').optional()
+	})
+	.refine((r) => r.status === 'accepted' || (r.reason && r.reason.length > 0), {
+		message: 'Say why the document is rejected.',
+		path: ['reason']
+	});
+
+export const uploadFormSchema = z.object({
+	kind: z.enum(DOCUMENT_KINDS, { message: 'Choose which document this is.' }),
+	expiresOn: z.union([z.literal(''), isoDate]).default(''),
+	file: z
+		.instanceof(File, { message: 'Choose a file.' })
+		.refine((f) => f.size > 0, 'The file is empty.')
+});
+
+const days = z
+	.number({ message: 'Enter days.' })
+	.int('Whole days.')
+	.min(0, 'Days cannot be negative.')
+	.max(365, 'At most a year before sailing.')
+	.default(30);
+
+/** One tick and one number of days before sailing per kind of document. */
+export const requirementsFormSchema = z.object({
+	personnel: z.boolean().default(false),
+	personnelDays: days,
+	medical: z.boolean().default(false),
+	medicalDays: days,
+	passport: z.boolean().default(false),
+	passportDays: days,
+	sea_survival: z.boolean().default(false),
+	sea_survivalDays: days,
+	emergency_contact: z.boolean().default(false),
+	emergency_contactDays: days,
+	visa: z.boolean().default(false),
+	visaDays: days
+});
