@@ -9,10 +9,12 @@ import {
 } from '$lib/server/auth';
 import { db } from '$lib/server/db';
 import { newId } from '$lib/server/ids';
+import * as documents from '$lib/server/documents';
 import * as outbox from '$lib/server/mail/outbox';
 
 export const init: ServerInit = () => {
 	outbox.startWorker();
+	documents.startRetention();
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {

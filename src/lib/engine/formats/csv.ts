@@ -71,7 +71,7 @@ function unguardText(s: string): string {
 	return s.startsWith("'") && FORMULA_START.test(s.slice(1)) ? s.slice(1) : s;
 }
 
-function quote(cell: string): string {
+export function quote(cell: string): string {
 	return /[",\r\n]|^\s|\s$/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell;
 }
 
