@@ -16,7 +16,15 @@ import {
 	notice,
 	user
 } from '../../src/lib/server/db/schema';
-import { DEMO, signIn, startServer, waitForMail, type TestServer } from '../support/server';
+import Papa from 'papaparse';
+import {
+	DEMO,
+	formPost,
+	signIn,
+	startServer,
+	waitForMail,
+	type TestServer
+} from '../support/server';
 
 let srv: TestServer;
 let db: Db;
@@ -335,5 +343,105 @@ describe('documents', () => {
 		});
 		expect(ok.status).toBe(200);
 		expect(await ok.json()).toMatchObject({ status: 'rejected', reviewReason: 'Page is cut off.' });
+	});
+});
+
+describe('persons on board', () => {
+	it('CSV (RFC 4180, header first) for the master and the port agent; nobody else', async () => {
+		const path = `/api/v1/cruises/${cruiseId}/pob.csv`;
+		for (const who of [DEMO.chief, DEMO.admin, DEMO.participant]) {
+			const r = await call(who, 'GET', path);
+			expect(r.status, who).toBe(403);
+			expect((await r.json()).error.message).toMatch(/master (or|and the) port agent/);
+		}
+		const printed = await fetch(`${srv.url}/cruises/${cruiseId}/pob`, {
+			headers: { cookie: await cookieFor(DEMO.admin) },
+			redirect: 'manual'
+		});
+		expect(printed.status).toBe(403);
+		for (const who of [DEMO.master, DEMO.agent]) {
+			const r = await call(who, 'GET', path);
+			expect(r.status, who).toBe(200);
+			expect(r.headers.get('content-type')).toBe('text/csv; charset=utf-8; header=present');
+			const text = await r.text();
+			// Nothing before the header row; every line ends in CRLF (RFC 4180 §2.1–2.3).
+			expect(text.startsWith('leg,full_name,nationality,date_of_birth,passport_number,')).toBe(
+				true
+			);
+			expect(text.replace(/\r\n/g, '')).not.toMatch(/[\r\n]/);
+			// Read back by papaparse, a reader that is not ours.
+			const parsed = Papa.parse<Record<string, string>>(text.trimEnd(), { header: true });
+			expect(parsed.errors).toEqual([]);
+			const confirmed = db
+				.select({ n: count() })
+				.from(berthApplication)
+				.where(
+					and(eq(berthApplication.cruiseId, cruiseId), eq(berthApplication.status, 'confirmed'))
+				)
+				.get()!.n;
+			expect(parsed.data).toHaveLength(confirmed);
+			const rafael = parsed.data.find((row) => row.full_name === 'RAFAEL QUENBY')!;
+			expect(rafael).toMatchObject({
+				leg: 'Leg 1 — northern segment',
+				joining_port: 'Port Ardent',
+				leaving_port: 'Bellmoor Harbour'
+			});
+			expect(rafael.passport_number).toMatch(/^XP\d{7}$/);
+		}
+	});
+
+	it('travel details refuse an impossible date and a formula-looking name, keeping nothing', async () => {
+		const me = 'rush40@example.org';
+		const bad = await formPost(
+			srv.url,
+			'/account/travel',
+			{
+				fullName: '=HYPERLINK("x")',
+				nationality: 'Xanderan',
+				dateOfBirth: '1990-02-30',
+				passportNumber: 'XP1234567',
+				passportExpiry: '2031-01-01'
+			},
+			{ cookie: await cookieFor(me) }
+		);
+		expect(bad.status).toBe(400);
+		const html = await bad.text();
+		expect(html).toContain('The full name as in the passport cannot start with = + - or @.');
+		expect(html).toContain('This is not a calendar date.');
+	});
+});
+
+describe('retention', () => {
+	it('lists, then deletes, the documents of a cruise completed more than 90 days ago', async () => {
+		const other = db.select().from(cruise).where(eq(cruise.code, 'SL27-01')).get()!;
+		const up = await uploadAs(
+			DEMO.participant,
+			'kind=personnel&filename=old.pdf',
+			pdf('old cruise')
+		);
+		const { sha256 } = await up.json();
+		const hash = db.select().from(document).where(eq(document.sha256, sha256)).get()!;
+		db.insert(document)
+			.values({ ...hash, id: 'olddoc', cruiseId: other.id, sha256: 'f'.repeat(64) })
+			.run();
+		db.update(cruise)
+			.set({ status: 'completed', returnAt: new Date(Date.now() - 91 * 86_400_000) })
+			.where(eq(cruise.id, other.id))
+			.run();
+		const admin = await cookieFor(DEMO.admin);
+		const page = await (
+			await fetch(`${srv.url}/admin/retention`, { headers: { cookie: admin } })
+		).text();
+		expect(page).toContain('SL27-01');
+		const chief = await fetch(`${srv.url}/admin/retention`, {
+			headers: { cookie: await cookieFor(DEMO.chief) },
+			redirect: 'manual'
+		});
+		expect(chief.status).toBe(403);
+		const run = await formPost(srv.url, '/admin/retention?/run', {}, { cookie: admin });
+		expect(run.status).toBe(200);
+		expect(db.select().from(document).where(eq(document.cruiseId, other.id)).all()).toEqual([]);
+		// The demo cruise's documents are untouched.
+		expect(db.select().from(document).where(eq(document.sha256, sha256)).get()).toBeTruthy();
 	});
 });
