@@ -95,6 +95,19 @@ export interface ApplicationRow {
 	decidedAt: Date | null;
 }
 
+/** The application as the API contract writes it (GET/POST/PATCH /cruises/{id}/berths). */
+export function toApi(a: ApplicationRow) {
+	return {
+		id: a.id,
+		userId: a.userId,
+		name: a.name,
+		legId: a.legId,
+		status: a.status,
+		roleOnBoard: a.roleOnBoard,
+		waitlistPosition: a.waitlistPosition
+	};
+}
+
 /** Applications on the cruise, all of them or one person's; waiting ones in waitlist order. */
 export function applications(
 	cruiseId: string,

@@ -33,7 +33,11 @@ describe('mail templates', () => {
 			message: null,
 			link: 'http://x/my-cruises'
 		};
-		const ok = templates.berthDecision({ ...base, status: 'confirmed', message: 'Welcome aboard.' });
+		const ok = templates.berthDecision({
+			...base,
+			status: 'confirmed',
+			message: 'Welcome aboard.'
+		});
 		expect(ok.subject).toBe('WL-1: Your berth is confirmed — Leg 2');
 		expect(ok.text).toContain('Message from the chief scientist:\nWelcome aboard.');
 		expect(ok.text).toContain('http://x/my-cruises');

@@ -13,15 +13,7 @@ export const GET: RequestHandler = api((event) => {
 		legs: berths.legTotals(access.cruise.id),
 		applications: berths
 			.applications(access.cruise.id, seesAll ? undefined : access.user.id)
-			.map((a) => ({
-				id: a.id,
-				userId: a.userId,
-				name: a.name,
-				legId: a.legId,
-				status: a.status,
-				roleOnBoard: a.roleOnBoard,
-				waitlistPosition: a.waitlistPosition
-			}))
+			.map(berths.toApi)
 	});
 });
 
@@ -30,16 +22,5 @@ export const POST: RequestHandler = api(async (event) => {
 	if (!access.role) throw new ApiError(403, 'Only participants of this cruise apply for berths.');
 	const input = await readJson(event, applySchema, 16 * 1024);
 	const a = berths.apply(access.user.id, access.cruise.id, input);
-	return json(
-		{
-			id: a.id,
-			userId: a.userId,
-			name: a.name,
-			legId: a.legId,
-			status: a.status,
-			roleOnBoard: a.roleOnBoard,
-			waitlistPosition: a.waitlistPosition
-		},
-		{ status: 201 }
-	);
+	return json(berths.toApi(a), { status: 201 });
 });

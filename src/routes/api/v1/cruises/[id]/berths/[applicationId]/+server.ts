@@ -16,13 +16,5 @@ export const PATCH: RequestHandler = api(async (event) => {
 		body.status,
 		body.message
 	);
-	return json({
-		id: a.id,
-		userId: a.userId,
-		name: a.name,
-		legId: a.legId,
-		status: a.status,
-		roleOnBoard: a.roleOnBoard,
-		waitlistPosition: a.waitlistPosition
-	});
+	return json(berths.toApi(a));
 });
