@@ -9,6 +9,7 @@ import * as clearances from '../src/lib/server/clearances';
 import * as deadlines from '../src/lib/server/deadlines';
 import * as publications from '../src/lib/server/publications';
 import { newId } from '../src/lib/server/ids';
+import * as uploads from '../src/lib/server/storage/uploads';
 import * as timelines from '../src/lib/server/timeline';
 import { operatingDays } from '../src/lib/engine/timeline';
 import { lineAmounts, totalMinor } from '../src/lib/money';
@@ -510,6 +511,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
 	seedSchedule(db, sail);
 	seedPublication(db);
 	seedTrack(db);
+	seedScienceParty(db);
 	return true;
 }
 
@@ -962,4 +964,193 @@ function seedInvoices(
 export function demoCruiseId(db: Db): string | undefined {
 	return db.select({ id: t.cruise.id }).from(t.cruise).where(eq(t.cruise.code, 'MT27-03')).get()
 		?.id;
+}
+
+/** A one-page PDF (ISO 32000-1 structure) standing in for a scanned form in the demo. */
+function demoPdf(title: string): Uint8Array {
+	const text = title.replace(/[()\\]/g, '');
+	const stream = `BT /F1 14 Tf 40 150 Td (${text}) Tj ET`;
+	const objs = [
+		'<</Type/Catalog/Pages 2 0 R>>',
+		'<</Type/Pages/Kids[3 0 R]/Count 1>>',
+		'<</Type/Page/Parent 2 0 R/MediaBox[0 0 420 200]/Contents 4 0 R/Resources<</Font<</F1 5 0 R>>>>>>',
+		`<</Length ${stream.length}>>stream\n${stream}\nendstream`,
+		'<</Type/Font/Subtype/Type1/BaseFont/Helvetica>>'
+	];
+	let out = '%PDF-1.4\n';
+	const offsets: number[] = [];
+	objs.forEach((o, i) => {
+		offsets.push(out.length);
+		out += `${i + 1} 0 obj${o}endobj\n`;
+	});
+	const xref = out.length;
+	out += `xref\n0 ${objs.length + 1}\n0000000000 65535 f \n`;
+	for (const o of offsets) out += `${String(o).padStart(10, '0')} 00000 n \n`;
+	out += `trailer<</Size ${objs.length + 1}/Root 1 0 R>>\nstartxref\n${xref}\n%%EOF\n`;
+	return new TextEncoder().encode(out);
+}
+
+/**
+ * The science party around the berth cap: leg 2 lowered to two free berths with six people waiting
+ * in order, roles and institutions on every application, required documents in every state (one
+ * expiring before the cruise returns, one medical), and travel details for the persons-on-board list.
+ */
+function seedScienceParty(db: Db) {
+	const cruiseId = demoCruiseId(db)!;
+	const id = (email: string) => db.select().from(t.user).where(eq(t.user.email, email)).get()!.id;
+	const chief = id('chief@example.org');
+	const me = id('participant@example.org');
+	const legs = db.select().from(t.leg).where(eq(t.leg.cruiseId, cruiseId)).all();
+	legs.sort((a, b) => a.seq - b.seq);
+	const [leg1, leg2] = legs;
+	const roles = [
+		'scientist',
+		'scientist',
+		'technician',
+		'student',
+		'scientist',
+		'observer'
+	] as const;
+	const institutes = [
+		'Institute of Ocean Floors (invented)',
+		'Saltmarsh University (invented)',
+		'Northern Basin Survey (invented)'
+	];
+	const apps = db
+		.select()
+		.from(t.berthApplication)
+		.where(eq(t.berthApplication.cruiseId, cruiseId))
+		.all();
+	apps.forEach((a, i) =>
+		db
+			.update(t.berthApplication)
+			.set({ roleOnBoard: roles[i % roles.length], institution: institutes[i % institutes.length] })
+			.where(eq(t.berthApplication.id, a.id))
+			.run()
+	);
+	// Leg 1's two waiting people keep their order.
+	apps
+		.filter((a) => a.legId === leg1.id && a.status === 'waitlisted')
+		.forEach((a, i) =>
+			db
+				.update(t.berthApplication)
+				.set({ waitlistPosition: i + 1 })
+				.where(eq(t.berthApplication.id, a.id))
+				.run()
+		);
+	// The demo participant waits first in line for leg 2; five more wait behind them.
+	db.update(t.berthApplication)
+		.set({ status: 'waitlisted', waitlistPosition: 1, decidedById: chief })
+		.where(and(eq(t.berthApplication.legId, leg2.id), eq(t.berthApplication.userId, me)))
+		.run();
+	const onLeg2 = new Set(apps.filter((a) => a.legId === leg2.id).map((a) => a.userId));
+	const behind = apps
+		.filter((a) => a.legId === leg1.id && !onLeg2.has(a.userId))
+		.slice(0, 5)
+		.map((a) => a.userId);
+	behind.forEach((userId, i) =>
+		db
+			.insert(t.berthApplication)
+			.values({
+				id: newId(),
+				cruiseId,
+				legId: leg2.id,
+				userId,
+				status: 'waitlisted',
+				waitlistPosition: i + 2,
+				roleOnBoard: roles[(i + 2) % roles.length],
+				institution: institutes[i % institutes.length],
+				decidedById: chief
+			})
+			.run()
+	);
+	// Two cabins of leg 2 go to the ship's own technicians: two science berths stay free.
+	const confirmed2 = db
+		.select()
+		.from(t.berthApplication)
+		.where(and(eq(t.berthApplication.legId, leg2.id), eq(t.berthApplication.status, 'confirmed')))
+		.all().length;
+	db.update(t.leg)
+		.set({ scienceBerths: confirmed2 + 2 })
+		.where(eq(t.leg.id, leg2.id))
+		.run();
+
+	for (const [kind, daysBeforeSailing] of [
+		['personnel', 60],
+		['medical', 45],
+		['passport', 30],
+		['sea_survival', 30],
+		['emergency_contact', 21]
+	] as const)
+		db.insert(t.documentRequirement).values({ cruiseId, kind, daysBeforeSailing }).run();
+
+	const doc = (
+		userId: string,
+		kind: t.DocumentKind,
+		filename: string,
+		extra: Partial<t.Document> = {}
+	) => {
+		const bytes = demoPdf(`${kind} - demo document`);
+		db.insert(t.document)
+			.values({
+				id: newId(),
+				cruiseId,
+				userId,
+				kind,
+				filename,
+				mimeType: 'application/pdf',
+				sizeBytes: bytes.byteLength,
+				sha256: uploads.store(bytes),
+				...extra
+			})
+			.run();
+	};
+	const reviewed = { reviewedById: chief, reviewedAt: new Date(Date.UTC(2027, 2, 20)) };
+	doc(me, 'personnel', 'personnel-form-quenby.pdf', { status: 'accepted', ...reviewed });
+	doc(me, 'medical', 'fitness-certificate.pdf', { expiresOn: '2028-03-01' });
+	// Runs out on 20 May 2027, before the cruise is home (30 May).
+	doc(me, 'passport', 'passport-page.pdf', { expiresOn: '2027-05-20' });
+	doc(me, 'sea_survival', 'basic-safety.pdf', {
+		status: 'rejected',
+		reviewReason: 'The certificate page is cut off; upload the whole page, please.',
+		expiresOn: '2029-01-31',
+		...reviewed
+	});
+	const others = apps.filter((a) => a.legId === leg1.id && a.userId !== me).slice(0, 6);
+	others.forEach((a, i) => {
+		doc(
+			a.userId,
+			'personnel',
+			`personnel-${i + 1}.pdf`,
+			i < 4 ? { status: 'accepted', ...reviewed } : {}
+		);
+		if (i < 3) doc(a.userId, 'passport', `passport-${i + 1}.pdf`, { expiresOn: '2031-06-30' });
+	});
+
+	// Travel details for the persons-on-board list (invented nationalities and numbers).
+	const nations = ['Xanderan', 'Bellmoorish', 'Ardentine'];
+	const people = db
+		.select({ userId: t.berthApplication.userId, name: t.user.name })
+		.from(t.berthApplication)
+		.innerJoin(t.user, eq(t.user.id, t.berthApplication.userId))
+		.where(
+			and(eq(t.berthApplication.cruiseId, cruiseId), eq(t.berthApplication.status, 'confirmed'))
+		)
+		.all();
+	const seen = new Set<string>();
+	people.forEach((p, i) => {
+		// Two people have not entered theirs yet.
+		if (seen.has(p.userId) || i >= people.length - 2) return;
+		seen.add(p.userId);
+		db.insert(t.travelProfile)
+			.values({
+				userId: p.userId,
+				fullName: p.name.toUpperCase(),
+				nationality: nations[i % nations.length],
+				dateOfBirth: `19${70 + (i % 28)}-0${1 + (i % 9)}-1${i % 10}`,
+				passportNumber: `XP${String(4810273 + i * 7919).padStart(7, '0')}`,
+				passportExpiry: `203${i % 10}-11-30`
+			})
+			.run();
+	});
 }

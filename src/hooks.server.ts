@@ -12,6 +12,7 @@ import { crossSiteRefusal } from '$lib/server/csrf';
 import { db } from '$lib/server/db';
 import * as enginePool from '$lib/server/engine-pool';
 import { newId } from '$lib/server/ids';
+import * as documents from '$lib/server/documents';
 import * as outbox from '$lib/server/mail/outbox';
 import * as reminders from '$lib/server/reminders';
 
@@ -19,6 +20,7 @@ export const init: ServerInit = () => {
 	outbox.startWorker();
 	void enginePool.warm().catch((e) => console.error('engine pool did not start', e));
 	reminders.startScheduler();
+	documents.startRetention();
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {

@@ -24,6 +24,8 @@ export const config = {
 	catcherInUse: e.MAIL_CATCHER === '1',
 	/** Where the local SMTP catcher drops .eml files; admins read them in the app. */
 	mailCatcherDir: e.MAIL_CATCHER_DIR || 'data/mailbox',
+	/** Days after a completed cruise's return when its sea-going documents are deleted. */
+	documentRetentionDays: int('DOCUMENT_RETENTION_DAYS', 90),
 	/** Milliseconds between outbox sweeps. */
 	outboxIntervalMs: int('OUTBOX_INTERVAL_MS', 5000),
 	/** The engine worker pool (src/lib/server/engine-pool.ts). */

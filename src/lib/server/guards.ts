@@ -76,6 +76,21 @@ export function requireCruiseRole(
 	return { user, cruise: found, role, isAdmin };
 }
 
+/**
+ * The caller must hold one of `roles` on the cruise themselves; being an admin does not count. For
+ * data meant for those roles only (the persons-on-board list for the master and the port agent).
+ */
+export function requireHeldCruiseRole(
+	event: Event,
+	cruiseId: string,
+	...roles: CruiseRole[]
+): CruiseAccess {
+	const access = requireCruiseRole(event, cruiseId, ...roles);
+	if (!access.role || !roles.includes(access.role))
+		error(403, `Only the ${roles.map(roleLabel).join(' and the ')} of this cruise see this.`);
+	return access;
+}
+
 /** Medical documents: the chief scientist and the master of the cruise, nobody else. */
 export function canReadMedical(access: CruiseAccess): boolean {
 	return access.role === 'chief_scientist' || access.role === 'master';

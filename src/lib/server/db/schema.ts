@@ -13,6 +13,8 @@ import {
 	type AnySQLiteColumn
 } from 'drizzle-orm/sqlite-core';
 
+import { DOCUMENT_KINDS, ROLES_ON_BOARD, type DocumentKind, type RoleOnBoard } from '../../party';
+
 export type LonLat = [number, number];
 
 const id = () => text().primaryKey();
@@ -202,7 +204,9 @@ export const leg = sqliteTable(
 		fromPortId: text().references(() => port.id),
 		toPortId: text().references(() => port.id),
 		startAt: integer({ mode: 'timestamp_ms' }),
-		endAt: integer({ mode: 'timestamp_ms' })
+		endAt: integer({ mode: 'timestamp_ms' }),
+		// Science berths on this leg when fewer than the vessel's (null: the vessel's number).
+		scienceBerths: integer()
 	},
 	(t) => [uniqueIndex('leg_seq_idx').on(t.cruiseId, t.seq)]
 );
@@ -316,8 +320,13 @@ export const berthApplication = sqliteTable(
 			.notNull()
 			.references(() => user.id, { onDelete: 'cascade' }),
 		status: text({ enum: BERTH_STATUSES }).notNull().default('applied'),
-		roleOnBoard: text(),
+		roleOnBoard: text({ enum: ROLES_ON_BOARD }),
 		note: text(),
+		institution: text(),
+		// 1, 2, … in the order waiting people are offered a freed berth; null unless waitlisted.
+		waitlistPosition: integer(),
+		// The chief scientist's optional message with the last decision (sent in the decision e-mail).
+		decisionMessage: text(),
 		decidedById: text().references(() => user.id, { onDelete: 'set null' }),
 		decidedAt: integer({ mode: 'timestamp_ms' }),
 		createdAt: createdAt()
@@ -325,22 +334,62 @@ export const berthApplication = sqliteTable(
 	(t) => [uniqueIndex('berth_application_leg_user').on(t.legId, t.userId)]
 );
 
-export const DOCUMENT_KINDS = ['personnel', 'medical', 'passport', 'certificate'] as const;
+export { DOCUMENT_KINDS, ROLES_ON_BOARD, type DocumentKind, type RoleOnBoard };
 
-export const document = sqliteTable('document', {
-	id: id(),
-	cruiseId: text()
-		.notNull()
-		.references(() => cruise.id, { onDelete: 'cascade' }),
+export const DOCUMENT_STATUSES = ['uploaded', 'accepted', 'rejected'] as const;
+
+export const document = sqliteTable(
+	'document',
+	{
+		id: id(),
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		userId: text()
+			.notNull()
+			.references(() => user.id, { onDelete: 'cascade' }),
+		kind: text({ enum: DOCUMENT_KINDS }).notNull(),
+		// The uploader's file name, used only as the download name.
+		filename: text().notNull(),
+		mimeType: text().notNull(),
+		sizeBytes: integer().notNull(),
+		sha256: text().notNull(),
+		status: text({ enum: DOCUMENT_STATUSES }).notNull().default('uploaded'),
+		// Calendar date YYYY-MM-DD, where the document has one (passport, certificate, visa).
+		expiresOn: text(),
+		reviewReason: text(),
+		reviewedById: text().references(() => user.id, { onDelete: 'set null' }),
+		reviewedAt: integer({ mode: 'timestamp_ms' }),
+		createdAt: createdAt()
+	},
+	(t) => [index('document_cruise_user_idx').on(t.cruiseId, t.userId, t.kind)]
+);
+
+// Which documents a cruise requires, each due a number of days before sailing.
+export const documentRequirement = sqliteTable(
+	'document_requirement',
+	{
+		cruiseId: text()
+			.notNull()
+			.references(() => cruise.id, { onDelete: 'cascade' }),
+		kind: text({ enum: DOCUMENT_KINDS }).notNull(),
+		daysBeforeSailing: integer().notNull()
+	},
+	(t) => [uniqueIndex('document_requirement_pk').on(t.cruiseId, t.kind)]
+);
+
+// Travel details for the persons-on-board list; read only by the person, and by the master and
+// the port agent of a cruise they sail on.
+export const travelProfile = sqliteTable('travel_profile', {
 	userId: text()
-		.notNull()
+		.primaryKey()
 		.references(() => user.id, { onDelete: 'cascade' }),
-	kind: text({ enum: DOCUMENT_KINDS }).notNull(),
-	filename: text().notNull(),
-	mimeType: text().notNull(),
-	sizeBytes: integer().notNull(),
-	sha256: text().notNull(),
-	createdAt: createdAt()
+	fullName: text().notNull(),
+	nationality: text().notNull(),
+	dateOfBirth: text().notNull(),
+	passportNumber: text().notNull(),
+	passportExpiry: text().notNull(),
+	updatedAt: createdAt()
 });
 
 // ---------------------------------------------------------------- money
@@ -673,6 +722,8 @@ export type Station = typeof station.$inferSelect;
 export type PlanItem = typeof planItem.$inferSelect;
 export type BerthApplication = typeof berthApplication.$inferSelect;
 export type Document = typeof document.$inferSelect;
+export type DocumentRequirement = typeof documentRequirement.$inferSelect;
+export type TravelProfile = typeof travelProfile.$inferSelect;
 export type Invoice = typeof invoice.$inferSelect;
 export type Payment = typeof payment.$inferSelect;
 export type Notice = typeof notice.$inferSelect;

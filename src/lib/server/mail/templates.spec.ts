@@ -22,6 +22,33 @@ describe('mail templates', () => {
 		expect(m.text).toContain('http://x/invite/t');
 		expect(m.text).toContain('14 days');
 	});
+
+	it('a berth decision names the leg, the decision, the waitlist place and the message', () => {
+		const base = {
+			name: 'Rafael',
+			cruiseCode: 'WL-1',
+			cruiseTitle: 'Ridge',
+			legName: 'Leg 2',
+			waitlistPosition: null,
+			message: null,
+			link: 'http://x/my-cruises'
+		};
+		const ok = templates.berthDecision({
+			...base,
+			status: 'confirmed',
+			message: 'Welcome aboard.'
+		});
+		expect(ok.subject).toBe('WL-1: Your berth is confirmed — Leg 2');
+		expect(ok.text).toContain('Message from the chief scientist:\nWelcome aboard.');
+		expect(ok.text).toContain('http://x/my-cruises');
+		const wait = templates.berthDecision({ ...base, status: 'waitlisted', waitlistPosition: 3 });
+		expect(wait.text).toContain('waiting list for Leg 2, position 3');
+		const no = templates.berthDecision({ ...base, status: 'declined' });
+		expect(no.subject).toContain('declined');
+		expect(no.text).not.toContain('Message from');
+		// Never a word about health in a berth e-mail.
+		for (const m of [ok, wait, no]) expect(m.text).not.toMatch(/medic|health|fitness/i);
+	});
 });
 
 describe('payment mail', () => {

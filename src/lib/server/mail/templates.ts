@@ -255,6 +255,36 @@ export function reminder(p: {
 		text:
 			`${p.title} for cruise ${p.cruiseCode} is due ${when}, on ${utcDate(p.dueAt)} (UTC).\n\n` +
 			`${p.what}\n\nOpen the cruise: ${p.link}` +
+/** A berth decision for one leg. Says nothing about documents, health or anyone else. */
+export function berthDecision(p: {
+	name: string;
+	cruiseCode: string;
+	cruiseTitle: string;
+	legName: string;
+	status: 'confirmed' | 'waitlisted' | 'declined';
+	waitlistPosition: number | null;
+	message: string | null;
+	link: string;
+}): MailText {
+	const what = {
+		confirmed: 'Your berth is confirmed',
+		waitlisted: 'You are on the waiting list',
+		declined: 'Your berth application was declined'
+	}[p.status];
+	const detail = {
+		confirmed: `Your berth on ${p.legName} is confirmed. Upload the sea-going documents the cruise requires before their deadlines.`,
+		waitlisted:
+			`You are on the waiting list for ${p.legName}` +
+			(p.waitlistPosition ? `, position ${p.waitlistPosition}` : '') +
+			'. When a berth frees, the first person waiting is offered it.',
+		declined: `Your application for a berth on ${p.legName} was declined.`
+	}[p.status];
+	return {
+		subject: `${p.cruiseCode}: ${what} — ${p.legName}`,
+		text:
+			`Dear ${p.name},\n\n${detail}\n\n` +
+			(p.message ? `Message from the chief scientist:\n${p.message}\n\n` : '') +
+			`Cruise ${p.cruiseCode} — ${p.cruiseTitle}\nYour applications and documents: ${p.link}` +
 			SIGNATURE
 	};
 }
