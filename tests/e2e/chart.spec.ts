@@ -5,13 +5,12 @@ async function openChart(page: Page, email: string) {
 	await signInAs(page, email);
 	await page.getByRole('list', { name: 'Cruises' }).getByRole('link').first().click();
 	await page.getByRole('link', { name: 'Chart' }).click();
-	await expect(page.getByRole('application', { name: 'Cruise chart' })).toHaveAttribute(
-		'data-ready',
-		'true',
-		{ timeout: 30_000 }
-	);
-	// Let the basemap, isobaths and labels settle before looking.
-	await page.waitForTimeout(1500);
+	const map = page.getByRole('application', { name: 'Cruise chart' });
+	// "Drawn": MapLibre has rendered a frame with the saved plan's source loaded.
+	await expect(map).toHaveAttribute('data-plan-drawn', 'true', { timeout: 30_000 });
+	// The drawing tools and the predicted isobaths come after the plan.
+	await expect(map).toHaveAttribute('data-ready', 'true', { timeout: 30_000 });
+	await expect(map).toHaveAttribute('data-depth-drawn', 'true', { timeout: 30_000 });
 }
 
 /** Clicks at fractions of the chart's width and height, slowly enough not to double-click. */

@@ -11,7 +11,7 @@ export const FONT = 'Inter';
 export const EMPTY: FeatureCollection = { type: 'FeatureCollection', features: [] };
 
 /** Source ids the component updates when props change. */
-export const SOURCES = ['land', 'depth', 'graticule', 'plan', 'draft'] as const;
+export const SOURCES = ['land', 'depth', 'graticule', 'plan', 'plan-labels', 'draft'] as const;
 
 /** Colours of the plan by line purpose and station kind (our own choice). */
 export const PURPOSE_COLOURS: Record<string, string> = {
@@ -59,7 +59,14 @@ export const DEPTH_RAMP: [number, string][] = [
 	[6000, '#3d6f98']
 ];
 
-export function chartStyle(fontUrl: string): StyleSpecification {
+/**
+ * The style, with any sources whose data is already known (the saved plan) filled in, so the
+ * first frame after the style loads draws them without a second round to the worker.
+ */
+export function chartStyle(
+	fontUrl: string,
+	initial: Partial<Record<(typeof SOURCES)[number], FeatureCollection>> = {}
+): StyleSpecification {
 	const text: { 'text-font': string[]; 'text-size': number } = {
 		'text-font': [FONT],
 		'text-size': 11
@@ -182,7 +189,7 @@ export function chartStyle(fontUrl: string): StyleSpecification {
 		{
 			id: 'line-label',
 			type: 'symbol',
-			source: 'plan',
+			source: 'plan-labels',
 			filter: ['any', isKind('line'), isKind('ridge'), isKind('area')],
 			layout: {
 				...text,
@@ -207,7 +214,7 @@ export function chartStyle(fontUrl: string): StyleSpecification {
 		{
 			id: 'station-label',
 			type: 'symbol',
-			source: 'plan',
+			source: 'plan-labels',
 			filter: isKind('station'),
 			layout: {
 				...text,
@@ -260,7 +267,7 @@ export function chartStyle(fontUrl: string): StyleSpecification {
 		version: 8,
 		'font-faces': { [FONT]: [{ url: fontUrl }] },
 		sources: Object.fromEntries(
-			SOURCES.map((id) => [id, { type: 'geojson', data: EMPTY }])
+			SOURCES.map((id) => [id, { type: 'geojson', data: initial[id] ?? EMPTY }])
 		) as StyleSpecification['sources'],
 		layers
 	};
