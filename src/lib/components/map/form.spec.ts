@@ -86,7 +86,8 @@ describe('forms', () => {
 		expect(propertiesFromForm('ridge', f)).toEqual({
 			ok: false,
 			field: 'fullRateMmYr',
-			message: 'Full spreading rate is needed. Full spreading rate must be above 0 and at most 250 mm/yr.'
+			message:
+				'Full spreading rate is needed. Full spreading rate must be above 0 and at most 250 mm/yr.'
 		});
 		expect(propertiesFromForm('ridge', { ...f, name: ' ' })).toMatchObject({ field: 'name' });
 	});
