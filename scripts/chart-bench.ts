@@ -67,7 +67,9 @@ try {
 		const depth = await at('data-depth-drawn');
 		if (i >= 0) {
 			rows.push({ drawn, ready, depth });
-			console.log(`run ${i + 1}: plan drawn ${drawn} ms · tools ready ${ready} ms · isobaths ${depth} ms`);
+			console.log(
+				`run ${i + 1}: plan drawn ${drawn} ms · tools ready ${ready} ms · isobaths ${depth} ms`
+			);
 		}
 	}
 } finally {
@@ -76,7 +78,9 @@ try {
 }
 
 const [c, load] = [cpus().length, loadavg()[0].toFixed(2)];
-console.log(`\nChart (demo cruise, 1400×900, headless Chromium, ${c} cores, load ${load}), median of ${RUNS}:`);
+console.log(
+	`\nChart (demo cruise, 1400×900, headless Chromium, ${c} cores, load ${load}), median of ${RUNS}:`
+);
 console.log(`  plan drawn    ${median(rows.map((r) => r.drawn))} ms   (target < 1500 ms)`);
 console.log(`  tools ready   ${median(rows.map((r) => r.ready))} ms`);
 console.log(`  isobaths      ${median(rows.map((r) => r.depth))} ms`);

@@ -10,7 +10,10 @@ export const FONT = 'Inter';
 
 export const EMPTY: FeatureCollection = { type: 'FeatureCollection', features: [] };
 
-/** Source ids the component updates when props change. */
+/**
+ * Source ids the component updates when props change. The plan's labels have their own source
+ * (the same data), so lines and stations are drawn without waiting for the label font's glyphs.
+ */
 export const SOURCES = ['land', 'depth', 'graticule', 'plan', 'plan-labels', 'draft'] as const;
 
 /** Colours of the plan by line purpose and station kind (our own choice). */
@@ -219,8 +222,11 @@ export function chartStyle(
 			layout: {
 				...text,
 				'text-field': ['get', 'name'],
-				'text-anchor': 'left',
-				'text-offset': [0.9, 0]
+				// labels move round their station to make room for each other (collision on)
+				'text-variable-anchor': ['left', 'right', 'top', 'bottom'],
+				'text-radial-offset': 0.9,
+				'text-justify': 'auto',
+				'symbol-sort-key': ['case', ['get', 'selected'], 0, 1]
 			},
 			paint: { 'text-color': '#212429', 'text-halo-color': '#ffffff', 'text-halo-width': 1.5 }
 		},
