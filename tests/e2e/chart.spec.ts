@@ -1,17 +1,20 @@
 import { expect, test, type Page } from '@playwright/test';
 import { DEMO, shot, signInAs } from './fixtures';
 
+// WebGL runs on the CPU here (SwiftShader) on a shared 2-core machine: each test draws, saves and
+// undoes several times, which can take longer than the suite's default minute.
+test.describe.configure({ timeout: 300_000 });
+
 async function openChart(page: Page, email: string) {
 	await signInAs(page, email);
 	await page.getByRole('list', { name: 'Cruises' }).getByRole('link').first().click();
 	await page.getByRole('link', { name: 'Chart' }).click();
-	await expect(page.getByRole('application', { name: 'Cruise chart' })).toHaveAttribute(
-		'data-ready',
-		'true',
-		{ timeout: 30_000 }
-	);
-	// Let the basemap, isobaths and labels settle before looking.
-	await page.waitForTimeout(1500);
+	const map = page.getByRole('application', { name: 'Cruise chart' });
+	// "Drawn": MapLibre has rendered a frame with the saved plan's source loaded.
+	await expect(map).toHaveAttribute('data-plan-drawn', 'true', { timeout: 30_000 });
+	// The drawing tools and the predicted isobaths come after the plan.
+	await expect(map).toHaveAttribute('data-ready', 'true', { timeout: 30_000 });
+	await expect(map).toHaveAttribute('data-depth-drawn', 'true', { timeout: 30_000 });
 }
 
 /** Clicks at fractions of the chart's width and height, slowly enough not to double-click. */
@@ -250,4 +253,55 @@ test('a line typed across the antimeridian stays one short line', async ({ page 
 	await expect(book.getByRole('row', { name: /DATELINE/ })).toContainText('96.');
 	await page.getByRole('button', { name: 'Undo' }).click();
 	await expect(book).not.toContainText('DATELINE');
+});
+
+test('a far typed position asks "did you mean W?"; a speed out of limits is named at its field; keys reach the tools', async ({
+	page
+}) => {
+	await openChart(page, DEMO.chief);
+	await shot(page, 'chart-workspace');
+	const place = page.getByRole('form', { name: 'Place by coordinates' });
+	await place.getByLabel('Kind').selectOption('station');
+	await place.getByLabel('Positions').fill('30 12.500 S 146 24.000 E');
+	await place.getByRole('button', { name: 'Show on chart' }).click();
+	const ask = place.getByRole('alertdialog', { name: 'Far from the rest of the cruise' });
+	await expect(ask).toContainText('Did you mean W: 30°12.500′S 146°24.000′W?');
+	await ask.getByRole('button', { name: 'Use W' }).click();
+	const panel = page.getByRole('form', { name: 'New or changed feature' });
+	await expect(panel.getByRole('list', { name: 'Positions' })).toHaveText(
+		'30°12.500′S 146°24.000′W'
+	);
+	await panel.getByRole('button', { name: 'Cancel' }).click();
+
+	// A survey speed beyond the limit: a plain message at the field, and nothing saved.
+	await place.getByLabel('Kind').selectOption('line');
+	await place.getByLabel('Positions').fill('30 00.000 S 146 30.000 W\n30 00.000 S 146 00.000 W');
+	await place.getByRole('button', { name: 'Show on chart' }).click();
+	const speed = panel.getByLabel('Survey speed (kn)');
+	await expect(speed).toHaveAttribute('max', '20');
+	await expect(panel.getByLabel('Name')).toHaveAttribute('maxlength', '80');
+	const name = await panel.getByLabel('Name').inputValue();
+	await speed.fill('25');
+	await panel.getByRole('button', { name: 'Save' }).click();
+	await expect(speed).toHaveAttribute('aria-invalid', 'true');
+	await expect(panel).toContainText('Survey speed must be above 0 and at most 20 kn.');
+	await expect(page.getByRole('alert')).not.toContainText(/too big|expected/i);
+	await expect(page.getByRole('table', { name: 'Line book' })).not.toContainText(name);
+	await shot(page, 'chart-field-error');
+	await panel.getByRole('button', { name: 'Cancel' }).click();
+
+	// Tools and panels from the keyboard.
+	await page.keyboard.press('l');
+	await expect(page.getByRole('button', { name: 'Line', exact: true })).toHaveAttribute(
+		'aria-pressed',
+		'true'
+	);
+	await page.keyboard.press('s');
+	await page.keyboard.press('p');
+	await expect(page.getByRole('button', { name: 'Show panel' })).toBeVisible();
+	await page.keyboard.press('b');
+	await expect(page.getByRole('table', { name: 'Line book' })).toHaveCount(0);
+	await page.keyboard.press('p');
+	await page.keyboard.press('b');
+	await expect(page.getByRole('table', { name: 'Line book' })).toBeVisible();
 });

@@ -127,3 +127,35 @@ export const bulkEditSchema = z.object({
 		})
 		.refine((p) => p.surveySpeedKn !== undefined || p.overlapPct !== undefined, 'nothing to change')
 });
+
+/** Most lines one request may save over an area (a 100 km box at 2 km spacing needs about 50). */
+export const MAX_AREA_LINES = 500;
+
+/**
+ * A survey area with the lines generated over it, saved in one request: a new area (`area`) or one
+ * already on the cruise (`areaId`), and its lines (their `areaId` is set by the server).
+ */
+export const areaWithLinesSchema = z
+	.object({
+		area: z
+			.object({ name, geometry: polygon, properties: areaProps.default(areaProps.parse({})) })
+			.optional(),
+		areaId: z.string().min(1).max(64).optional(),
+		lines: z
+			.array(
+				z.object({
+					name,
+					geometry: lineString,
+					properties: lineProps
+						.omit({ areaId: true })
+						.default(lineProps.omit({ areaId: true }).parse({}))
+				})
+			)
+			.min(1, 'at least one line is needed')
+			.max(MAX_AREA_LINES, `at most ${MAX_AREA_LINES} lines can be saved at once`)
+	})
+	.refine((v) => Boolean(v.area) !== Boolean(v.areaId), {
+		message: 'give either a new area or the id of one on this cruise, not both',
+		path: ['area']
+	});
+export type AreaWithLines = z.infer<typeof areaWithLinesSchema>;

@@ -14,12 +14,14 @@ import {
 	lineString,
 	point,
 	polygon,
+	type AreaWithLines,
 	type FeaturePatch,
 	type NewFeature
 } from '$lib/schemas/plan';
 import { ApiError } from './api';
 import { audit } from './audit';
 import { db } from './db';
+import type { Db } from './db/client';
 import {
 	cruise,
 	ridgeSegment,
@@ -275,48 +277,55 @@ function assertArea(cruiseId: string, areaId: string | null | undefined) {
 		]);
 }
 
+type Tx = Pick<Db, 'insert'>;
+
+/** Inserts one feature inside the caller's transaction. */
+function insertFeature(tx: Tx, cruiseId: string, id: string, f: NewFeature) {
+	switch (f.kind) {
+		case 'ridge':
+			tx.insert(ridgeSegment)
+				.values({ id, cruiseId, name: f.name, axis: f.geometry.coordinates, ...f.properties })
+				.run();
+			break;
+		case 'line':
+			tx.insert(surveyLine)
+				.values({ id, cruiseId, name: f.name, coords: f.geometry.coordinates, ...f.properties })
+				.run();
+			break;
+		case 'area':
+			tx.insert(surveyArea)
+				.values({
+					id,
+					cruiseId,
+					name: f.name,
+					ring: openRing(f.geometry.coordinates[0]),
+					...f.properties
+				})
+				.run();
+			break;
+		case 'station': {
+			const [lon, lat] = f.geometry.coordinates;
+			tx.insert(station)
+				.values({
+					id,
+					cruiseId,
+					name: f.name,
+					kind: f.properties.stationKind,
+					lon,
+					lat,
+					params: f.properties.params
+				})
+				.run();
+			break;
+		}
+	}
+}
+
 export function create(actorId: string, cruiseId: string, f: NewFeature): Promise<Feature> {
 	if (f.kind === 'line') assertArea(cruiseId, f.properties.areaId);
 	const id = newId();
 	db.transaction((tx) => {
-		switch (f.kind) {
-			case 'ridge':
-				tx.insert(ridgeSegment)
-					.values({ id, cruiseId, name: f.name, axis: f.geometry.coordinates, ...f.properties })
-					.run();
-				break;
-			case 'line':
-				tx.insert(surveyLine)
-					.values({ id, cruiseId, name: f.name, coords: f.geometry.coordinates, ...f.properties })
-					.run();
-				break;
-			case 'area':
-				tx.insert(surveyArea)
-					.values({
-						id,
-						cruiseId,
-						name: f.name,
-						ring: openRing(f.geometry.coordinates[0]),
-						...f.properties
-					})
-					.run();
-				break;
-			case 'station': {
-				const [lon, lat] = f.geometry.coordinates;
-				tx.insert(station)
-					.values({
-						id,
-						cruiseId,
-						name: f.name,
-						kind: f.properties.stationKind,
-						lon,
-						lat,
-						params: f.properties.params
-					})
-					.run();
-				break;
-			}
-		}
+		insertFeature(tx, cruiseId, id, f);
 		audit(tx, {
 			userId: actorId,
 			cruiseId,
@@ -326,6 +335,42 @@ export function create(actorId: string, cruiseId: string, f: NewFeature): Promis
 	});
 	touch(cruiseId);
 	return feature(cruiseId, id);
+}
+
+/**
+ * A survey area and the lines generated over it, saved together in one transaction: all of them or,
+ * when any part is refused, none. Either a new area is given or the id of one already on the cruise;
+ * every line remembers the area it covers.
+ */
+export async function createAreaWithLines(
+	actorId: string,
+	cruiseId: string,
+	input: AreaWithLines
+): Promise<{ area: Feature; lines: Feature[] }> {
+	const areaId = input.areaId ?? newId();
+	if (input.areaId) assertArea(cruiseId, input.areaId);
+	const lineIds = input.lines.map(() => newId());
+	db.transaction((tx) => {
+		if (input.area) insertFeature(tx, cruiseId, areaId, { kind: 'area', ...input.area });
+		input.lines.forEach((l, i) =>
+			insertFeature(tx, cruiseId, lineIds[i], {
+				kind: 'line',
+				name: l.name,
+				geometry: l.geometry,
+				properties: { ...l.properties, areaId }
+			})
+		);
+		audit(tx, {
+			userId: actorId,
+			cruiseId,
+			action: 'plan.area.lines.created',
+			detail: { areaId, newArea: Boolean(input.area), lineIds }
+		});
+	});
+	touch(cruiseId);
+	const all = (await collection(cruiseId, true)).features as Feature[];
+	const byId = new Map(all.map((f) => [f.id, f]));
+	return { area: byId.get(areaId)!, lines: lineIds.map((id) => byId.get(id)!) };
 }
 
 function fieldError(

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
+	allowed,
+	plainRefusal,
 	defaultForm,
 	formFromFeature,
 	nextName,
@@ -84,7 +86,8 @@ describe('forms', () => {
 		expect(propertiesFromForm('ridge', f)).toEqual({
 			ok: false,
 			field: 'fullRateMmYr',
-			message: 'The full spreading rate is needed.'
+			message:
+				'Full spreading rate is needed. Full spreading rate must be above 0 and at most 250 mm/yr.'
 		});
 		expect(propertiesFromForm('ridge', { ...f, name: ' ' })).toMatchObject({ field: 'name' });
 	});
@@ -95,5 +98,52 @@ describe('forms', () => {
 		expect(f.params).toEqual({ bottomH: 1.5, wireScope: 1.5, deckH: 1 });
 		const kept = withStationKind({ ...f, name: 'Vent site' }, 'dive', plan);
 		expect(kept.name).toBe('Vent site');
+	});
+});
+
+describe('plain errors at the field', () => {
+	const RAW = /too big|too small|expected|invalid_type|<=|>=/i;
+
+	it('names the field in plain words and says what is allowed', () => {
+		expect(allowed('surveySpeedKn')).toBe('Survey speed must be above 0 and at most 20 kn.');
+		expect(allowed('overlapPct')).toBe('Target overlap must be from 0 to 90 %.');
+		expect(allowed('name')).toBe('Name must be 1 to 80 characters long.');
+		expect(allowed('axialDepthM')).toBe(
+			'Measured axial depth must be from 0 to 8,000 m, or left empty.'
+		);
+	});
+
+	it('refuses values out of their limits before anything is sent', () => {
+		const form = defaultForm('line', [], null);
+		expect(propertiesFromForm('line', { ...form, surveySpeedKn: 25 })).toEqual({
+			ok: false,
+			field: 'surveySpeedKn',
+			message: 'Survey speed must be above 0 and at most 20 kn.'
+		});
+		expect(propertiesFromForm('line', { ...form, surveySpeedKn: 0 })).toMatchObject({
+			field: 'surveySpeedKn'
+		});
+		expect(propertiesFromForm('line', { ...form, overlapPct: 95 })).toMatchObject({
+			field: 'overlapPct'
+		});
+		expect(propertiesFromForm('line', { ...form, name: 'x'.repeat(81) })).toMatchObject({
+			field: 'name',
+			message: 'Name must be 1 to 80 characters long.'
+		});
+		const ridge = defaultForm('ridge', [], null);
+		expect(propertiesFromForm('ridge', { ...ridge, axialDepthM: 9000 })).toMatchObject({
+			field: 'axialDepthM'
+		});
+		expect(propertiesFromForm('ridge', { ...ridge, axialDepthM: null }).ok).toBe(true);
+	});
+
+	it('turns an API refusal into plain words, never the schema text', () => {
+		expect(plainRefusal('properties.surveySpeedKn')).toEqual({
+			field: 'surveySpeedKn',
+			message: 'Survey speed must be above 0 and at most 20 kn.'
+		});
+		expect(plainRefusal('name').message).toBe('Name must be 1 to 80 characters long.');
+		for (const f of ['geometry.coordinates.0.1', 'properties.params.bottleStops', 'other', null])
+			expect(plainRefusal(f).message).not.toMatch(RAW);
 	});
 });

@@ -1,6 +1,7 @@
 // The settings form behind the side panel: one flat record for every kind, filled from a saved
 // feature or from defaults, and turned back into the properties the API takes for a kind.
 import type { IhoOrder, LinePurpose, StationKind } from '$lib/engine/formats/types';
+import { MAX_POTENTIAL_TEMPERATURE_C } from '$lib/engine/melt';
 import type { PlanFeature, PlanKind, PlanVessel } from './types';
 
 export interface SettingsForm {
@@ -176,19 +177,108 @@ export type FormResult =
 	| { ok: true; name: string; properties: Record<string, unknown> }
 	| { ok: false; field: string; message: string };
 
-function need(v: number | null, field: string, label: string): FormResult | null {
-	return v === null || !Number.isFinite(v)
-		? { ok: false, field, message: `${label} is needed.` }
-		: null;
+/**
+ * What each settings field allows, in the API's own limits (src/lib/schemas/plan.ts), with the
+ * plain words a person reads next to the field. The inputs carry the same min/max/maxlength.
+ */
+export interface FieldLimit {
+	label: string;
+	min?: number;
+	/** true when the value must be strictly above `min` */
+	above?: boolean;
+	max?: number;
+	maxLength?: number;
+	unit?: string;
+	optional?: boolean;
 }
 
-/** The API properties for `kind`, or the first missing field. */
+export const NAME_MAX = 80;
+
+export const FIELD_LIMITS: Record<string, FieldLimit> = {
+	name: { label: 'Name', maxLength: NAME_MAX },
+	fullRateMmYr: { label: 'Full spreading rate', min: 0, above: true, max: 250, unit: 'mm/yr' },
+	asymmetry: { label: 'Asymmetry', min: 0, max: 1, optional: true },
+	potentialTemperatureC: {
+		label: 'Potential temperature',
+		min: 1000,
+		max: MAX_POTENTIAL_TEMPERATURE_C,
+		unit: '°C',
+		optional: true
+	},
+	axialDepthM: { label: 'Measured axial depth', min: 0, max: 8000, unit: 'm', optional: true },
+	surveySpeedKn: { label: 'Survey speed', min: 0, above: true, max: 20, unit: 'kn' },
+	overlapPct: { label: 'Target overlap', min: 0, max: 90, unit: '%' }
+};
+
+const num = (v: number) => v.toLocaleString('en');
+
+/** "Survey speed must be above 0 and at most 20 kn." — what the field allows, in plain words. */
+export function allowed(field: string): string {
+	const l = FIELD_LIMITS[field];
+	if (!l) return 'Check this value.';
+	if (l.maxLength) return `${l.label} must be 1 to ${l.maxLength} characters long.`;
+	const unit = l.unit ? (l.unit === '%' ? ' %' : ` ${l.unit}`) : '';
+	const low = l.min === undefined ? '' : l.above ? `above ${num(l.min)}` : `at least ${num(l.min)}`;
+	const high = l.max === undefined ? '' : `at most ${num(l.max)}`;
+	const range =
+		!l.above && l.min !== undefined && l.max !== undefined
+			? `from ${num(l.min)} to ${num(l.max)}${unit}`
+			: [low, high].filter(Boolean).join(' and ') + unit;
+	return `${l.label} must be ${range}${l.optional ? ', or left empty' : ''}.`;
+}
+
+/** The first field of `fields` whose value is missing or out of its limits, with what it allows. */
+function check(form: SettingsForm, fields: (keyof SettingsForm)[]): FormResult | null {
+	for (const field of fields) {
+		const l = FIELD_LIMITS[field];
+		const v = form[field] as number | null;
+		if (v === null || v === undefined || (v as unknown) === '') {
+			if (l.optional) continue;
+			return { ok: false, field, message: `${l.label} is needed. ${allowed(field)}` };
+		}
+		const bad =
+			!Number.isFinite(v) ||
+			(l.min !== undefined && (l.above ? v <= l.min : v < l.min)) ||
+			(l.max !== undefined && v > l.max);
+		if (bad) return { ok: false, field, message: allowed(field) };
+	}
+	return null;
+}
+
+/**
+ * A refusal from the API as a person should read it: the field in plain words and what it allows,
+ * never the schema's own text. `field` is the API's path (e.g. "properties.surveySpeedKn").
+ */
+export function plainRefusal(field: string | undefined | null): {
+	field: string | null;
+	message: string;
+} {
+	const key = field?.startsWith('properties.') ? field.slice('properties.'.length) : field;
+	if (key && FIELD_LIMITS[key]) return { field: key, message: allowed(key) };
+	if (key?.startsWith('geometry'))
+		return {
+			field: null,
+			message:
+				'A position is outside the allowed range: latitude −90 to 90°, longitude −180 to 180°.'
+		};
+	if (key?.startsWith('params') || key?.startsWith('properties.params'))
+		return { field: null, message: 'A station setting was refused: use a number of zero or more.' };
+	return { field: null, message: 'The change was refused. Check the settings and try again.' };
+}
+
+/** The API properties for `kind`, or the first field that is missing or out of its limits. */
 export function propertiesFromForm(kind: PlanKind, form: SettingsForm): FormResult {
 	const name = form.name.trim();
-	if (!name) return { ok: false, field: 'name', message: 'Give it a name.' };
+	if (!name) return { ok: false, field: 'name', message: `Give it a name. ${allowed('name')}` };
+	if (name.length > NAME_MAX) return { ok: false, field: 'name', message: allowed('name') };
 	switch (kind) {
 		case 'ridge': {
-			const miss = need(form.fullRateMmYr, 'fullRateMmYr', 'The full spreading rate');
+			const miss = check(form, [
+				'fullRateMmYr',
+				'asymmetry',
+				'potentialTemperatureC',
+				'axialDepthM'
+			]);
 			if (miss) return miss;
 			return {
 				ok: true,
@@ -203,9 +293,7 @@ export function propertiesFromForm(kind: PlanKind, form: SettingsForm): FormResu
 		}
 		case 'line':
 		case 'area': {
-			const miss =
-				need(form.surveySpeedKn, 'surveySpeedKn', 'The survey speed') ??
-				need(form.overlapPct, 'overlapPct', 'The target overlap');
+			const miss = check(form, ['surveySpeedKn', 'overlapPct']);
 			if (miss) return miss;
 			const base = { surveySpeedKn: form.surveySpeedKn, overlapPct: form.overlapPct };
 			return {

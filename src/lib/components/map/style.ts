@@ -10,8 +10,11 @@ export const FONT = 'Inter';
 
 export const EMPTY: FeatureCollection = { type: 'FeatureCollection', features: [] };
 
-/** Source ids the component updates when props change. */
-export const SOURCES = ['land', 'depth', 'graticule', 'plan', 'draft'] as const;
+/**
+ * Source ids the component updates when props change. The plan's labels have their own source
+ * (the same data), so lines and stations are drawn without waiting for the label font's glyphs.
+ */
+export const SOURCES = ['land', 'depth', 'graticule', 'plan', 'plan-labels', 'draft'] as const;
 
 /** Colours of the plan by line purpose and station kind (our own choice). */
 export const PURPOSE_COLOURS: Record<string, string> = {
@@ -59,7 +62,14 @@ export const DEPTH_RAMP: [number, string][] = [
 	[6000, '#3d6f98']
 ];
 
-export function chartStyle(fontUrl: string): StyleSpecification {
+/**
+ * The style, with any sources whose data is already known (the saved plan) filled in, so the
+ * first frame after the style loads draws them without a second round to the worker.
+ */
+export function chartStyle(
+	fontUrl: string,
+	initial: Partial<Record<(typeof SOURCES)[number], FeatureCollection>> = {}
+): StyleSpecification {
 	const text: { 'text-font': string[]; 'text-size': number } = {
 		'text-font': [FONT],
 		'text-size': 11
@@ -182,7 +192,7 @@ export function chartStyle(fontUrl: string): StyleSpecification {
 		{
 			id: 'line-label',
 			type: 'symbol',
-			source: 'plan',
+			source: 'plan-labels',
 			filter: ['any', isKind('line'), isKind('ridge'), isKind('area')],
 			layout: {
 				...text,
@@ -207,13 +217,16 @@ export function chartStyle(fontUrl: string): StyleSpecification {
 		{
 			id: 'station-label',
 			type: 'symbol',
-			source: 'plan',
+			source: 'plan-labels',
 			filter: isKind('station'),
 			layout: {
 				...text,
 				'text-field': ['get', 'name'],
-				'text-anchor': 'left',
-				'text-offset': [0.9, 0]
+				// labels move round their station to make room for each other (collision on)
+				'text-variable-anchor': ['left', 'right', 'top', 'bottom'],
+				'text-radial-offset': 0.9,
+				'text-justify': 'auto',
+				'symbol-sort-key': ['case', ['get', 'selected'], 0, 1]
 			},
 			paint: { 'text-color': '#212429', 'text-halo-color': '#ffffff', 'text-halo-width': 1.5 }
 		},
@@ -260,7 +273,7 @@ export function chartStyle(fontUrl: string): StyleSpecification {
 		version: 8,
 		'font-faces': { [FONT]: [{ url: fontUrl }] },
 		sources: Object.fromEntries(
-			SOURCES.map((id) => [id, { type: 'geojson', data: EMPTY }])
+			SOURCES.map((id) => [id, { type: 'geojson', data: initial[id] ?? EMPTY }])
 		) as StyleSpecification['sources'],
 		layers
 	};
