@@ -9,20 +9,16 @@ export const orderSchema = z.object({
 });
 
 export const timingSchema = z.object({
-	turnH: z.number({ message: 'Enter hours.' }).min(0).max(24).default(0.5),
-	mobilisationH: z.number({ message: 'Enter hours.' }).min(0).max(240).default(24),
-	demobilisationH: z.number({ message: 'Enter hours.' }).min(0).max(240).default(12),
+	turnH: z.number().min(0).max(24).default(0.5),
+	mobilisationH: z.number().min(0).max(240).default(24),
+	demobilisationH: z.number().min(0).max(240).default(12),
 	marginMode: z.enum(['pct', 'days']).default('pct'),
 	weatherMarginPct: z
-		.number({ message: 'Enter a percentage.' })
+		.number()
 		.min(0, 'The margin cannot be negative.')
 		.max(100, 'The margin is at most 100 %.')
 		.default(10),
-	weatherMarginDays: z
-		.number({ message: 'Enter days.' })
-		.min(0, 'The margin cannot be negative.')
-		.max(60)
-		.default(0)
+	weatherMarginDays: z.number().min(0, 'The margin cannot be negative.').max(60).default(0)
 });
 
 const utcInstant = z
@@ -36,7 +32,7 @@ export const clockChangeSchema = z.object({
 	at: utcInstant,
 	/** Hours from UTC, e.g. -9 or 5.5; kept to quarter hours. */
 	offsetHours: z
-		.number({ message: 'Enter hours from UTC, e.g. -9.' })
+		.number()
 		.min(-12, 'At least −12 h.')
 		.max(14, 'At most +14 h.')
 		.refine((h) => Number.isInteger(h * 4), 'Use whole, half or quarter hours.'),
@@ -49,7 +45,7 @@ export const addItemSchema = z.object({
 
 export const portCallSchema = z.object({
 	portId: z.string().min(1, 'Choose a port.'),
-	hours: z.number({ message: 'Enter hours alongside.' }).min(1).max(480).default(36)
+	hours: z.number().min(1).max(480).default(36)
 });
 
 export const idSchema = z.object({ id: z.string().min(1) });
@@ -65,7 +61,7 @@ export const CLEARANCE_STATUSES = [
 export const clearanceSchema = z.object({
 	id: z.string().default(''),
 	coastalState: z.string().trim().min(2, 'Name the coastal state.').max(120),
-	leadMonths: z.number({ message: 'Enter months.' }).int('Whole months.').min(0).max(36).default(6),
+	leadMonths: z.number().int('Whole months.').min(0).max(36).default(6),
 	status: z.enum(CLEARANCE_STATUSES).default('not_started'),
 	notes: z.string().trim().max(2000).default(''),
 	itemIds: z.array(z.string()).default([])
@@ -84,12 +80,7 @@ export const deadlineSchema = z.object({
 	title: z.string().trim().min(2, 'Say what is due.').max(200),
 	kind: z.enum(DEADLINE_KINDS).default('other'),
 	anchor: z.enum(['sailing', 'return']).default('sailing'),
-	offsetDays: z
-		.number({ message: 'Enter days (negative = before).' })
-		.int('Whole days.')
-		.min(-730)
-		.max(730)
-		.default(-30)
+	offsetDays: z.number().int('Whole days.').min(-730).max(730).default(-30)
 });
 
 export const doneSchema = z.object({ id: z.string().min(1), done: z.boolean().default(false) });
