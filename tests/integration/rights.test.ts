@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDb } from '../../src/lib/server/db/client';
-import { auditLog, cruise, document, user } from '../../src/lib/server/db/schema';
+import { auditLog, cruise, deadline, document, user } from '../../src/lib/server/db/schema';
 import { DEMO, formPost, signIn, startServer, type TestServer } from '../support/server';
 
 let srv: TestServer;
@@ -190,7 +190,7 @@ describe('plain errors at the field, nothing saved', () => {
 
 	it('the vessel form: limits read from the schema, plain messages, nothing saved', async () => {
 		const page = await (await get('/admin/vessels/new', 'admin')).text();
-		expect(page).toMatch(/<input[^>]*id="transitSpeedKn"[^>]*min="0"/);
+		expect(page).toMatch(/<input[^>]*id="transitSpeedKn"[^>]*min="2"[^>]*max="25"/);
 		expect(page).toMatch(/<input[^>]*id="scienceBerths"[^>]*min="1"[^>]*max="200"/);
 		expect(page).toMatch(/<input[^>]*id="name"[^>]*maxlength="120"/);
 		const res = await post('/admin/vessels/new', 'admin', {
@@ -208,10 +208,35 @@ describe('plain errors at the field, nothing saved', () => {
 		});
 		expect(res.status).toBe(400);
 		const html = await res.text();
-		expect(fieldError(html, 'scienceBerths')).toBe('At least one berth.');
+		expect(fieldError(html, 'scienceBerths')).toBe('Science berths: at least 1.');
 		expect(fieldError(html, 'enduranceDays')).toMatch(/^Endurance \(days\): at most \d+\.$/);
 		expect(html).not.toMatch(/Too big|Too small/);
 		expect(html).not.toContain('RV Long Test</td>');
+	});
+
+	it('the checklist form: limits on its inputs, plain messages at its fields', async () => {
+		const before = db
+			.select({ n: sql<number>`count(*)` })
+			.from(deadline)
+			.get()!.n;
+		const page = await (await get(`/cruises/${demoId}/clearances`, 'chief')).text();
+		expect(page).toMatch(/<input[^>]*id="offsetDays"[^>]*min="-730"[^>]*max="730"/);
+		const res = await post(`/cruises/${demoId}/clearances?/addDeadline`, 'chief', {
+			title: 'D'.repeat(201),
+			kind: 'other',
+			anchor: 'sailing',
+			offsetDays: '9999'
+		});
+		expect(res.status).toBe(400);
+		const html = await res.text();
+		expect(fieldError(html, 'title')).toBe('Title: at most 200 characters.');
+		expect(fieldError(html, 'offsetDays')).toBe('Days (− before): at most 730.');
+		expect(
+			db
+				.select({ n: sql<number>`count(*)` })
+				.from(deadline)
+				.get()!.n
+		).toBe(before);
 	});
 
 	it('the API’s 422 details carry the same plain messages', async () => {
@@ -236,6 +261,7 @@ describe('plain errors at the field, nothing saved', () => {
 			field: 'name',
 			message: 'Name: at most 80 characters.'
 		});
+		expect(body.error.message).toBe('Name: at most 80 characters. (name)');
 	});
 });
 

@@ -1,7 +1,7 @@
 import { z } from './messages';
 
 export const signInSchema = z.object({
-	email: z.email('Enter the e-mail address of your account.').max(254).trim().toLowerCase(),
+	email: z.email().max(254).trim().toLowerCase(),
 	password: z.string().min(1, 'Enter your password.')
 });
 
@@ -29,7 +29,7 @@ export const acceptInvitationSchema = z
 	});
 
 export const resetRequestSchema = z.object({
-	email: z.email('Enter an e-mail address.').max(254).trim().toLowerCase()
+	email: z.email().max(254).trim().toLowerCase()
 });
 
 export const changePasswordSchema = z
@@ -52,7 +52,7 @@ export const tokenSchema = z.object({
 });
 
 export const siteInviteSchema = z.object({
-	email: z.email('Enter an e-mail address.').max(254).trim().toLowerCase(),
+	email: z.email().max(254).trim().toLowerCase(),
 	role: z.enum(['admin', 'member']).default('member')
 });
 

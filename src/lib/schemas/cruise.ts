@@ -70,7 +70,7 @@ export function toLocalInput(d: Date | null | undefined): string {
 }
 
 export const memberInviteSchema = z.object({
-	email: z.email('Enter an e-mail address.').max(254).trim().toLowerCase(),
+	email: z.email().max(254).trim().toLowerCase(),
 	role: z.enum(['chief_scientist', 'participant', 'port_agent', 'master']).default('participant')
 });
 

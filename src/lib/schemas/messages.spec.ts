@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { cruiseSchema } from './cruise';
 import { newFeatureSchema } from './plan';
+import { deadlineSchema, timingSchema } from './timeline';
 import { vesselSchema } from './vessel';
 import { fieldOf, labelFor, z } from './messages';
 
@@ -75,10 +76,27 @@ describe('plain schema messages', () => {
 		expect(labelFor('surveySpeedKn')).toBe('Survey speed (kn)');
 		expect(labelFor('winchSpeedMPerMin')).toBe('Winch speed (m/min)');
 		expect(labelFor('mobilisationH')).toBe('Mobilisation (hours)');
-		expect(labelFor('leadMonths')).toBe('Lead time (months)');
+		expect(labelFor('leadMonths')).toBe('Months ahead');
 		expect(labelFor('maxDays')).toBe('Max days');
 		expect(fieldOf(['items', 2, 'id'])).toBe('Id');
 		expect(fieldOf(['line', 'coordinates', 0, 1])).toBe('Positions (#1, #2)');
 		expect(fieldOf([])).toBe('');
+	});
+
+	it('a bound is said as a bound, not as a type message of the whole schema', () => {
+		// zod applies a schema-level message to every issue without its own; the schemas leave type
+		// messages to the error map so that "31 hours" is not answered with "Enter hours."
+		expect(messages(timingSchema.safeParse({ turnH: 30 })).turnH).toBe(
+			'Turn between lines (hours): at most 24.'
+		);
+		expect(messages(timingSchema.safeParse({ turnH: 'x' })).turnH).toBe(
+			'Turn between lines (hours): enter a number.'
+		);
+		expect(messages(deadlineSchema.safeParse({ title: 'Due', offsetDays: 9999 })).offsetDays).toBe(
+			'Days (− before): at most 730.'
+		);
+		expect(messages(vesselSchema.safeParse({ transitSpeedKn: 0 })).transitSpeedKn).toBe(
+			'Transit speed (kn): above 0.'
+		);
 	});
 });

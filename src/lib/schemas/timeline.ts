@@ -27,7 +27,7 @@ export const clockChangeSchema = z.object({
 	at: utcInstant,
 	/** Hours from UTC, e.g. -9 or 5.5; kept to quarter hours. */
 	offsetHours: z
-		.number({ message: 'Enter hours from UTC, e.g. -9.' })
+		.number()
 		.min(-12, 'At least −12 h.')
 		.max(14, 'At most +14 h.')
 		.refine((h) => Number.isInteger(h * 4), 'Use whole, half or quarter hours.'),
@@ -56,7 +56,7 @@ export const CLEARANCE_STATUSES = [
 export const clearanceSchema = z.object({
 	id: z.string().default(''),
 	coastalState: z.string().trim().min(2, 'Name the coastal state.').max(120),
-	leadMonths: z.number({ message: 'Enter months.' }).int('Whole months.').min(0).max(36).default(6),
+	leadMonths: z.number().int('Whole months.').min(0).max(36).default(6),
 	status: z.enum(CLEARANCE_STATUSES).default('not_started'),
 	notes: z.string().trim().max(2000).default(''),
 	itemIds: z.array(z.string()).default([])
@@ -75,12 +75,7 @@ export const deadlineSchema = z.object({
 	title: z.string().trim().min(2, 'Say what is due.').max(200),
 	kind: z.enum(DEADLINE_KINDS).default('other'),
 	anchor: z.enum(['sailing', 'return']).default('sailing'),
-	offsetDays: z
-		.number({ message: 'Enter days (negative = before).' })
-		.int('Whole days.')
-		.min(-730)
-		.max(730)
-		.default(-30)
+	offsetDays: z.number().int('Whole days.').min(-730).max(730).default(-30)
 });
 
 export const doneSchema = z.object({ id: z.string().min(1), done: z.boolean().default(false) });

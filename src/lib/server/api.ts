@@ -90,7 +90,15 @@ export async function readJson<S extends z.ZodType>(
 		}));
 		throw new ApiError(
 			422,
-			issues.map((i) => `${i.field}: ${i.message}`).join('; '),
+			// Plain messages already name their field ("Name: at most 80 characters."); the path
+			// follows them in brackets rather than leading twice.
+			issues
+				.map((i) =>
+					/^[A-Z][^:]{0,60}: /.test(i.message)
+						? `${i.message} (${i.field})`
+						: `${i.field}: ${i.message}`
+				)
+				.join('; '),
 			'invalid',
 			issues
 		);
