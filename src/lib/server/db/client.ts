@@ -23,5 +23,18 @@ export function openDb(path: string = DEFAULT_DATABASE_PATH) {
 }
 
 export function migrateDb(db: Db, migrationsFolder = resolve('drizzle')) {
-	migrate(db, { migrationsFolder });
+	// drizzle-kit changes a column in SQLite by rebuilding its table (create, copy, drop, rename); with
+	// foreign keys on, the drop would cascade into the child rows. SQLite's own procedure for such
+	// changes (sqlite.org/lang_altertable.html, "other kinds of table schema changes"): keys off
+	// outside the transaction, migrate, check every reference, keys on again.
+	const sqlite = db.$client;
+	sqlite.pragma('foreign_keys = OFF');
+	try {
+		migrate(db, { migrationsFolder });
+		const broken = sqlite.pragma('foreign_key_check') as unknown[];
+		if (broken.length)
+			throw new Error(`the migration left ${broken.length} broken references: ${JSON.stringify(broken.slice(0, 5))}`);
+	} finally {
+		sqlite.pragma('foreign_keys = ON');
+	}
 }
