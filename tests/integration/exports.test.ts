@@ -15,7 +15,6 @@ import { DEMO, signIn, startServer, type TestServer } from '../support/server';
 
 let srv: TestServer;
 let cruiseId: string;
-let chief: string;
 let participant: string;
 let dir: string;
 
@@ -24,7 +23,6 @@ beforeAll(async () => {
 	const db = openDb(srv.dbPath);
 	cruiseId = db.select().from(cruise).where(eq(cruise.code, 'MT27-03')).get()!.id;
 	db.$client.close();
-	chief = (await signIn(srv.url, DEMO.chief, DEMO.password, '10.13.0.1')).cookie!;
 	participant = (await signIn(srv.url, DEMO.participant, DEMO.password, '10.13.0.2')).cookie!;
 	dir = mkdtempSync(join(tmpdir(), 'wl-exports-'));
 });

@@ -36,6 +36,7 @@ import {
 } from './db/schema';
 import { newId } from './ids';
 import { computeLine, computeStation, planSettings, type PlanSettings } from './plancompute';
+import * as timelines from './timeline';
 
 export type PlanKind = 'ridge' | 'line' | 'area' | 'station';
 
@@ -160,7 +161,14 @@ export interface PlanCollection extends FeatureCollection {
 		depthModel: Cruise['depthModel'];
 		canEdit: boolean;
 		vessel: PlanSettings['vessel'];
+		/** How the plan sits in its allocation, from the timeline (null until it can be built). */
+		fit: ReturnType<typeof timelines.fitToApi>;
 	};
+}
+
+/** The timeline's fit for the plan API: the chart shows when an edit pushes the plan past it. */
+export function fit(cruiseId: string) {
+	return timelines.fitToApi(timelines.fit(timelines.build(cruiseId)));
 }
 
 export function collection(cruiseId: string, canEdit: boolean): PlanCollection {
@@ -173,7 +181,8 @@ export function collection(cruiseId: string, canEdit: boolean): PlanCollection {
 			code: r.cruise.code,
 			depthModel: r.cruise.depthModel,
 			canEdit,
-			vessel: s.vessel
+			vessel: s.vessel,
+			fit: fit(cruiseId)
 		},
 		features: [
 			...r.ridges.map(ridgeFeature),
@@ -281,6 +290,8 @@ export function create(actorId: string, cruiseId: string, f: NewFeature): Featur
 				tx.insert(surveyLine)
 					.values({ id, cruiseId, name: f.name, coords: f.geometry.coordinates, ...f.properties })
 					.run();
+				// A new line joins the order of work at its cheapest place (timeline.joinOrder).
+				timelines.joinOrder(tx, cruiseId, [{ kind: 'line', id }]);
 				break;
 			case 'area':
 				tx.insert(surveyArea)
@@ -306,6 +317,7 @@ export function create(actorId: string, cruiseId: string, f: NewFeature): Featur
 						params: f.properties.params
 					})
 					.run();
+				timelines.joinOrder(tx, cruiseId, [{ kind: 'station', id }]);
 				break;
 			}
 		}
@@ -552,10 +564,13 @@ export function importDoc(actorId: string, cruiseId: string, doc: PlanDoc): Impo
 					surveySpeedKn: x.surveySpeedKn
 				})
 				.run();
-		for (const x of doc.lines)
+		const joined: { kind: 'line' | 'station'; id: string }[] = [];
+		for (const x of doc.lines) {
+			const id = newId();
+			joined.push({ kind: 'line', id });
 			tx.insert(surveyLine)
 				.values({
-					id: newId(),
+					id,
 					cruiseId,
 					name: x.name,
 					coords: x.coords,
@@ -565,10 +580,13 @@ export function importDoc(actorId: string, cruiseId: string, doc: PlanDoc): Impo
 					ihoOrder: x.ihoOrder
 				})
 				.run();
-		for (const x of doc.stations)
+		}
+		for (const x of doc.stations) {
+			const id = newId();
+			joined.push({ kind: 'station', id });
 			tx.insert(station)
 				.values({
-					id: newId(),
+					id,
 					cruiseId,
 					name: x.name,
 					kind: x.kind,
@@ -577,6 +595,9 @@ export function importDoc(actorId: string, cruiseId: string, doc: PlanDoc): Impo
 					params: x.params
 				})
 				.run();
+		}
+		// Imported lines and stations join the order of work one by one, each at its cheapest place.
+		for (const j of joined) timelines.joinOrder(tx, cruiseId, [j]);
 		audit(tx, {
 			userId: actorId,
 			cruiseId,

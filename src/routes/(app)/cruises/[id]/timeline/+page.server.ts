@@ -76,11 +76,11 @@ export const actions: Actions = {
 		if (!form.valid) return fail(400, { problem: 'Choose a line or station to add.' });
 		const [kind, refId] = form.data.ref.split(':') as ['line' | 'station', string];
 		try {
-			timelines.addItem(user.id, cruise.id, { kind, refId });
+			timelines.addItem(user.id, cruise.id, { kind, refId }, undefined, 'cheapest');
 		} catch (e) {
 			return refused(e);
 		}
-		return { done: 'Added at the end of the order.' };
+		return { done: 'Added to the order of work where it adds the least transit.' };
 	},
 	port: async (event) => {
 		const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
