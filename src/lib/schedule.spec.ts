@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildTimeline, type TimelineInput } from './engine/timeline';
 import {
 	arrange,
+	windowWarning,
 	dayRows,
 	eventKeys,
 	legSpans,
@@ -121,5 +122,14 @@ describe('dates and clocks', () => {
 		expect(offsetLabel(330)).toBe('UTC+5:30');
 		expect(offsetLabel(0)).toBe('UTC');
 		expect(clock(utc('2027-05-03T08:00Z'), -600)).toBe('2027-05-02 22:00');
+	});
+});
+
+describe('windowWarning', () => {
+	it('warns only when the plan ends after the allocated return, saying by how much [derived]', () => {
+		const end = Date.UTC(2027, 5, 1, 12);
+		expect(windowWarning(end, end)).toBeNull();
+		expect(windowWarning(end, null)).toBeNull();
+		expect(windowWarning(end + 90 * 60_000, end)).toMatch(/1\.5 h after the allocated return/);
 	});
 });

@@ -313,11 +313,8 @@ export function fit(built: { data: TimelineData; timeline: Timeline | null }): F
 	const back = schedule.returnAt(t);
 	const windowEnd = data.cruise.returnAt?.getTime() ?? null;
 	const pastWindowH = windowEnd != null && back > windowEnd ? (back - windowEnd) / 3_600_000 : 0;
-	const warnings = [...t.warnings];
-	if (pastWindowH > 0)
-		warnings.push(
-			`The plan is back in port ${schedule.clock(back)} UTC, ${pastWindowH.toFixed(1)} h after the allocated return (${schedule.clock(windowEnd!)} UTC, from the cruise settings).`
-		);
+	const late = schedule.windowWarning(back, windowEnd);
+	const warnings = late ? [...t.warnings, late] : [...t.warnings];
 	return {
 		operatingDays: t.totals.operatingDays,
 		allocatedDays: t.totals.allocatedDays,

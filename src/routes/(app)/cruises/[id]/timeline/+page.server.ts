@@ -12,6 +12,7 @@ import {
 import { ApiError } from '$lib/server/api';
 import * as guards from '$lib/server/guards';
 import * as timelines from '$lib/server/timeline';
+import { WEATHER_MARGIN_RULE } from '$lib/engine/timeline';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -26,6 +27,8 @@ export const load: PageServerLoad = async (event) => {
 		unordered: data.unordered,
 		ports: data.ports.map((p) => ({ id: p.id, name: p.name })),
 		clockChanges: data.clockChanges,
+		allocatedReturnAt: data.cruise.returnAt?.getTime() ?? null,
+		marginRule: WEATHER_MARGIN_RULE,
 		timingForm: await superValidate(timelines.settingsOf(data.cruise), zod4(timingSchema), {
 			id: 'timing'
 		}),
