@@ -711,11 +711,14 @@ function seedSchedule(db: Db, sail: number) {
 		},
 		db
 	);
-	// The cruise's dates and legs follow the planned timeline.
+	// The cruise form's dates are the allocated window: the allocated days from sailing. The legs
+	// follow the planned timeline.
 	const built = timelines.build(cruiseId, db);
 	const legs = timelines.legSpans(built.timeline!, built.data);
 	db.update(t.cruise)
-		.set({ returnAt: new Date(timelines.returnAt(built.timeline!)) })
+		.set({
+			returnAt: new Date(built.data.input!.departure.at + built.data.cruise.allocatedDays * DAY)
+		})
 		.where(eq(t.cruise.id, cruiseId))
 		.run();
 	for (const l of legs)

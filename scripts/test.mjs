@@ -32,6 +32,26 @@ if (!existsSync(chromium)) {
 	}
 }
 
+// The export tests read every file back with GDAL (ogrinfo) and gpsbabel; say which is missing.
+const onPath = (bin) =>
+	(process.env.PATH || '').split(':').some((dir) => dir && existsSync(`${dir}/${bin}`));
+const readers = [
+	['ogrinfo', 'gdal-bin'],
+	['gpsbabel', 'gpsbabel']
+].filter(([bin]) => !onPath(bin));
+if (readers.length) {
+	const names = readers.map(([bin, pkg]) => `${bin} (Debian ${pkg})`).join(' and ');
+	const cmd = `apt-get update && apt-get install -y --no-install-recommends ${readers.map(([, pkg]) => pkg).join(' ')}`;
+	if (process.getuid?.() === 0) {
+		run(`install the export readers: ${names}`, cmd);
+	} else {
+		console.error(
+			`\nThe export tests read files back with ${names}. Install with:\n\n  sudo sh -c '${cmd}'\n`
+		);
+		process.exit(1);
+	}
+}
+
 const only = process.argv[2];
 const steps = [
 	['types (svelte-check)', 'npm run -s check'],

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildTimeline, type TimelineInput } from './engine/timeline';
 import {
 	arrange,
+	windowWarning,
 	dayRows,
 	eventKeys,
 	legSpans,
@@ -133,5 +134,14 @@ describe('day rows stay bounded', () => {
 		} as unknown as Parameters<typeof dayRows>[0];
 		const rows = dayRows(t, { departure: { at: start, utcOffsetMinutes: 0 } } as never);
 		expect(rows).toHaveLength(SIZES.timelineDays);
+	});
+});
+
+describe('windowWarning', () => {
+	it('warns only when the plan ends after the allocated return, saying by how much [derived]', () => {
+		const end = Date.UTC(2027, 5, 1, 12);
+		expect(windowWarning(end, end)).toBeNull();
+		expect(windowWarning(end, null)).toBeNull();
+		expect(windowWarning(end + 90 * 60_000, end)).toMatch(/1\.5 h after the allocated return/);
 	});
 });

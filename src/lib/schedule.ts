@@ -181,6 +181,16 @@ export function offsetLabel(offsetMinutes: number): string {
 	return `UTC${sign}${Math.floor(a / 60)}${a % 60 ? ':' + pad(a % 60) : ''}`;
 }
 
+/** The warning when the plan ends after the allocated return of the cruise settings, or null. */
+export function windowWarning(
+	backInPortAt: number,
+	allocatedReturnAt: number | null
+): string | null {
+	if (allocatedReturnAt == null || backInPortAt <= allocatedReturnAt) return null;
+	const h = (backInPortAt - allocatedReturnAt) / H_MS;
+	return `The plan is back in port ${clock(backInPortAt)} UTC, ${h.toFixed(1)} h after the allocated return (${clock(allocatedReturnAt)} UTC, from the cruise settings).`;
+}
+
 /** "3 d 4.5 h" style durations for the budget. */
 export function days(h: number): string {
 	return `${(h / 24).toFixed(2)} d`;

@@ -15,7 +15,17 @@ test('the chief scientist imports a plan file: problems named, nothing partial u
 	await signInAs(page, DEMO.chief);
 	await page.getByRole('list', { name: 'Cruises' }).getByRole('link').first().click();
 	await page.getByRole('link', { name: 'Files' }).click();
-	await expect(page.getByRole('link', { name: 'RTZ' })).toHaveAttribute('href', /export\/rtz$/);
+	// The route for the bridge and the plan layers for GIS are two separate, named sets of files.
+	await expect(page.getByRole('link', { name: 'Route as RTZ' })).toHaveAttribute(
+		'href',
+		/export\/route\/rtz$/
+	);
+	await expect(page.getByRole('link', { name: 'Layers as GeoJSON' })).toHaveAttribute(
+		'href',
+		/export\/layers\/geojson$/
+	);
+	await expect(page.getByRole('heading', { name: 'Route for the bridge' })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Plan layers for GIS' })).toBeVisible();
 	await expect(page.getByText('A proposal, not a passage plan')).toBeVisible();
 
 	await page.getByLabel('Plan file').setInputFiles({
@@ -37,6 +47,7 @@ test('a participant sees exports but no import', async ({ page }) => {
 	await signInAs(page, DEMO.participant);
 	await page.getByRole('list', { name: 'Cruises' }).getByRole('link').first().click();
 	await page.getByRole('link', { name: 'Files' }).click();
-	await expect(page.getByRole('link', { name: 'GPX' })).toBeVisible();
+	await expect(page.getByRole('link', { name: 'Route as GPX' })).toBeVisible();
+	await expect(page.getByRole('link', { name: 'Layers as GPX' })).toBeVisible();
 	await expect(page.getByLabel('Plan file')).toHaveCount(0);
 });

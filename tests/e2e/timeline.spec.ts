@@ -25,6 +25,8 @@ function vevents(text: string) {
 test('the demo timeline fits its allocation; dragging an item changes the totals', async ({
 	page
 }) => {
+	// Drag, reload, suggestion, apply and undo: five round trips on a shared 2-core machine.
+	test.slow();
 	await openTimeline(page);
 	const days = page.getByTestId('operating-days');
 	const [used, allocated] = (await days.innerText()).match(/\d+/g)!.map(Number);
@@ -52,12 +54,29 @@ test('the demo timeline fits its allocation; dragging an item changes the totals
 		moved
 	);
 
-	// The shortest-transit suggestion does no worse than the hand order.
+	// The shortest-transit suggestion shows transit hours before and after and asks first.
 	const hand = await transitHours(page);
 	await page.getByRole('button', { name: 'Suggest shortest transit' }).click();
+	const offer = page.getByTestId('suggestion');
+	await expect(offer).toContainText(`yours needs ${hand.toFixed(1)} h`);
+	const offered = Number((await offer.innerText()).match(/needs ([\d.]+) h of transit/)![1]);
+	expect(offered).toBeLessThanOrEqual(hand + 0.05);
+	// Keeping the hand-made order changes nothing.
+	await page.getByRole('button', { name: 'Keep my order' }).click();
+	await expect(offer).toHaveCount(0);
+	expect(await transitHours(page)).toBe(hand);
+	await page.getByRole('button', { name: 'Suggest shortest transit' }).click();
+	await page.getByRole('button', { name: 'Use the suggested order' }).click();
 	await expect(page.getByText(/Shortest-transit order applied/)).toBeVisible();
-	expect(await transitHours(page)).toBeLessThanOrEqual(hand + 0.01);
+	await expect.poll(() => transitHours(page)).toBeCloseTo(offered, 1);
 	await shot(page, 'timeline-reordered');
+	// Undo brings the hand-made order back.
+	await page.getByRole('button', { name: 'Undo' }).click();
+	await expect(page.getByText('The previous order is back.')).toBeVisible();
+	await expect.poll(() => transitHours(page)).toBe(hand);
+	expect(await items.evaluateAll((els) => els.map((e) => e.getAttribute('data-name')))).toEqual(
+		moved
+	);
 });
 
 test('pushing the plan over its allocation shows the warning and what to cut', async ({ page }) => {

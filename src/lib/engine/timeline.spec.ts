@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
 	buildTimeline,
+	cheapestInsertion,
 	operatingDays,
 	shortestTransitOrder,
 	suggestCuts,
@@ -254,5 +255,42 @@ describe('shortest transit order', () => {
 		const order = shortestTransitOrder(start, start, items);
 		expect(order[2].id).toBe('PORT');
 		expect(new Set(order.slice(0, 2).map((o) => o.id))).toEqual(new Set(['L3', 'L0']));
+	});
+});
+
+describe('cheapestInsertion', () => {
+	// Points on the equator, one degree apart: distances add along the line, so the cheapest place
+	// is between the neighbours that bracket the new point [derived].
+	const pt = (id: string, lon: number) => ({ id, ends: [[lon, 0]] as [[number, number]] });
+	const route = [0, 1, 2, 3].map((lon) => ({ item: pt(`p${lon}`, lon), reversed: false }));
+
+	it('puts a point between the neighbours that bracket it, adding no transit', () => {
+		const ins = cheapestInsertion([-1, 0], [4, 0], route, [pt('new', 1.5)]);
+		expect(ins.index).toBe(2);
+		expect(ins.addedM).toBeCloseTo(0, 3);
+	});
+
+	it('runs a line the way that adds least, and keeps a block together', () => {
+		const line = (id: string, a: number, b: number) => ({
+			id,
+			ends: [
+				[a, 0],
+				[b, 0]
+			] as [[number, number], [number, number]]
+		});
+		// A line from lon 2.8 back to 2.2 fits between p2 and p3 when run 2.2 → 2.8.
+		const one = cheapestInsertion([-1, 0], [4, 0], route, [line('L', 2.8, 2.2)]);
+		expect(one.index).toBe(3);
+		expect(one.items).toEqual([{ id: 'L', reversed: true }]);
+		// Two lines made together stay one block, inner directions alternating.
+		const two = cheapestInsertion([-1, 0], [4, 0], route, [
+			line('A', 0.2, 0.4),
+			line('B', 0.4, 0.6)
+		]);
+		expect(two.index).toBe(1);
+		expect(two.items.map((o) => o.id)).toEqual(['A', 'B']);
+		// Limited to a range, it stays inside it even when another place is cheaper.
+		const limited = cheapestInsertion([-1, 0], [4, 0], route, [pt('x', 1.5)], [3, 4]);
+		expect(limited.index).toBeGreaterThanOrEqual(3);
 	});
 });

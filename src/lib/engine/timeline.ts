@@ -104,6 +104,19 @@ export interface Timeline {
 }
 
 /**
+ * The weather-margin rule, stated once and used everywhere: a share of the sea time — survey lines,
+ * turns, stations, transits and port calls, from sailing to the arrival home — or a fixed number of
+ * days. The margin is added after the arrival and kept apart from science.
+ */
+export const WEATHER_MARGIN_RULE =
+	'The weather margin is a share of the sea time (lines, turns, stations, transits and port calls, from sailing to the arrival home) or a fixed number of days; it is added after the arrival and never planned for science.';
+
+export function weatherMarginH(seaH: number, margin: TimelineInput['margin']): number {
+	const m = margin ?? { pct: 0 };
+	return 'pct' in m ? (seaH * m.pct) / 100 : m.days * 24;
+}
+
+/**
  * Operating days: every calendar day, whole or part, between leaving and returning (SCIENCE.md §6,
  * trade practice). Days are counted in the given clock (minutes from UTC; 0 = UTC). An arrival at
  * exactly midnight does not open a new day.
@@ -215,8 +228,7 @@ export function buildTimeline(input: TimelineInput): Timeline {
 	const portH = sum(['port']);
 	const seaH = scienceH + transitH + portH;
 
-	const m = input.margin ?? { pct: 0 };
-	const marginH = 'pct' in m ? (seaH * m.pct) / 100 : m.days * 24;
+	const marginH = weatherMarginH(seaH, input.margin);
 	if (marginH > 0) push({ kind: 'margin', name: 'Weather margin', durationH: marginH });
 	const returnAt = t;
 	if (input.demobilisationH && input.demobilisationH > 0)
@@ -416,4 +428,68 @@ function orderStretch(start: LonLat, end: LonLat, items: OrderableItem[]): Order
 		id: o.id,
 		reversed: items.find((x) => x.id === o.id)!.ends.length === 2 ? o.reversed : false
 	}));
+}
+
+// ---------------------------------------------------------------- joining the order
+
+export interface Insertion {
+	/** Insert before this index of the route (route.length: at the end). */
+	index: number;
+	/** The block in the order and directions it should run. */
+	items: OrderedItem[];
+	/** Transit added by the insertion, metres. */
+	addedM: number;
+}
+
+/** A block's inner directions: each line entered at the end nearer to where the last one left. */
+function blockDirections(block: readonly OrderableItem[]): OrderedItem[] {
+	const out: OrderedItem[] = [];
+	let here: LonLat | null = null;
+	for (const it of block) {
+		let reversed = false;
+		if (here && it.ends.length === 2)
+			reversed = distanceM(here, it.ends[1]) < distanceM(here, it.ends[0]);
+		out.push({ id: it.id, reversed });
+		here = exitOf(it, reversed);
+	}
+	return out;
+}
+
+/**
+ * Cheapest insertion (Rosenkrantz, Stearns & Lewis 1977, SIAM J. Comput. 6, 563): the place in the
+ * route where a new item — or a block of items made together, kept together — lengthens the
+ * transit least. The block may run either way round; `within` limits the places (e.g. next to
+ * lines of the same survey area). Heuristic: it does not reorder what is already there.
+ */
+export function cheapestInsertion(
+	start: LonLat,
+	end: LonLat,
+	route: readonly { item: OrderableItem; reversed: boolean }[],
+	block: readonly OrderableItem[],
+	within: [number, number] = [0, route.length]
+): Insertion {
+	const forward = blockDirections(block);
+	const byId = new Map(block.map((b) => [b.id, b]));
+	const backward = [...forward].reverse().map((o) => ({
+		id: o.id,
+		reversed: byId.get(o.id)!.ends.length === 2 ? !o.reversed : false
+	}));
+	const entry = (o: OrderedItem) => entryOf(byId.get(o.id)!, o.reversed);
+	const exit = (o: OrderedItem) => exitOf(byId.get(o.id)!, o.reversed);
+	let best: Insertion = { index: within[1], items: forward, addedM: Infinity };
+	const lo = Math.max(0, within[0]);
+	const hi = Math.min(route.length, within[1]);
+	for (let i = lo; i <= hi; i++) {
+		const prev = i === 0 ? start : exitOf(route[i - 1].item, route[i - 1].reversed);
+		const next = i === route.length ? end : entryOf(route[i].item, route[i].reversed);
+		const direct = distanceM(prev, next);
+		for (const variant of [forward, backward]) {
+			const added =
+				distanceM(prev, entry(variant[0])) +
+				distanceM(exit(variant[variant.length - 1]), next) -
+				direct;
+			if (added < best.addedM - 1e-6) best = { index: i, items: variant, addedM: added };
+		}
+	}
+	return best;
 }

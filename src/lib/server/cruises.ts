@@ -31,6 +31,7 @@ import { roleLabel } from './guards';
 import { hashSecret, newId, newSecret } from './ids';
 import * as outbox from './mail/outbox';
 import * as templates from './mail/templates';
+import * as timelines from './timeline';
 import { DomainError, INVITATION_LIFETIME_DAYS, normaliseEmail, openInvitation } from './users';
 
 export interface CruiseListItem {
@@ -371,6 +372,10 @@ export function revokeInvitation(actorId: string, cruiseId: string, invitationId
 /** The JSON shape of a cruise in the API. */
 export function toApi(d: NonNullable<ReturnType<typeof detail>>, role: CruiseRole | null) {
 	const c = d.cruise;
+	const built = timelines.build(c.id);
+	const planned = built.timeline
+		? { legs: timelines.legSpans(built.timeline, built.data), fit: timelines.fit(built) }
+		: null;
 	return {
 		id: c.id,
 		code: c.code,
@@ -403,13 +408,20 @@ export function toApi(d: NonNullable<ReturnType<typeof detail>>, role: CruiseRol
 			surveySpeedKn: d.vessel.surveySpeedKn,
 			dayRate: { amountMinor: d.vessel.dayRateMinor, currency: d.vessel.currency }
 		},
-		legs: d.legs.map((l) => ({
-			id: l.id,
-			seq: l.seq,
-			name: l.name,
-			startAt: l.startAt?.toISOString() ?? null,
-			endAt: l.endAt?.toISOString() ?? null
-		}))
+		// Leg times from the one timeline build when it can be made (port to port, margin in the
+		// last leg); the stored times otherwise.
+		legs: d.legs.map((l) => {
+			const span = planned?.legs.find((x) => x.seq === l.seq);
+			return {
+				id: l.id,
+				seq: l.seq,
+				name: l.name,
+				startAt: span ? new Date(span.start).toISOString() : (l.startAt?.toISOString() ?? null),
+				endAt: span ? new Date(span.end).toISOString() : (l.endAt?.toISOString() ?? null)
+			};
+		}),
+		/** The plan against the allocated window (departureAt/returnAt above). */
+		plan: timelines.fitToApi(planned?.fit ?? null)
 	};
 }
 

@@ -45,6 +45,7 @@ import {
 	type StationValues
 } from './plancompute';
 import * as plancache from './plancache';
+import * as timelines from './timeline';
 
 export type PlanKind = 'ridge' | 'line' | 'area' | 'station';
 
@@ -169,7 +170,14 @@ export interface PlanCollection extends FeatureCollection {
 		depthModel: Cruise['depthModel'];
 		canEdit: boolean;
 		vessel: PlanSettings['vessel'];
+		/** How the plan sits in its allocation, from the timeline (null until it can be built). */
+		fit: ReturnType<typeof timelines.fitToApi>;
 	};
+}
+
+/** The timeline's fit for the plan API: the chart shows when an edit pushes the plan past it. */
+export function fit(cruiseId: string) {
+	return timelines.fitToApi(timelines.fit(timelines.build(cruiseId)));
 }
 
 export async function collection(cruiseId: string, canEdit: boolean): Promise<PlanCollection> {
@@ -183,7 +191,8 @@ export async function collection(cruiseId: string, canEdit: boolean): Promise<Pl
 			code: r.cruise.code,
 			depthModel: r.cruise.depthModel,
 			canEdit,
-			vessel: s.vessel
+			vessel: s.vessel,
+			fit: fit(cruiseId)
 		},
 		features: [
 			...r.ridges.map(ridgeFeature),
@@ -326,6 +335,9 @@ export function create(actorId: string, cruiseId: string, f: NewFeature): Promis
 	const id = newId();
 	db.transaction((tx) => {
 		insertFeature(tx, cruiseId, id, f);
+		// A new line or station joins the order of work at its cheapest place (timeline.joinOrder).
+		if (f.kind === 'line' || f.kind === 'station')
+			timelines.joinOrder(tx, cruiseId, [{ kind: f.kind, id }]);
 		audit(tx, {
 			userId: actorId,
 			cruiseId,
@@ -359,6 +371,12 @@ export async function createAreaWithLines(
 				geometry: l.geometry,
 				properties: { ...l.properties, areaId }
 			})
+		);
+		// The lines made together over the area join the order of work together, at their cheapest place.
+		timelines.joinOrder(
+			tx,
+			cruiseId,
+			lineIds.map((id) => ({ kind: 'line' as const, id }))
 		);
 		audit(tx, {
 			userId: actorId,
@@ -605,10 +623,13 @@ export function importDoc(actorId: string, cruiseId: string, doc: PlanDoc): Impo
 					surveySpeedKn: x.surveySpeedKn
 				})
 				.run();
-		for (const x of doc.lines)
+		const joined: { kind: 'line' | 'station'; id: string }[] = [];
+		for (const x of doc.lines) {
+			const id = newId();
+			joined.push({ kind: 'line', id });
 			tx.insert(surveyLine)
 				.values({
-					id: newId(),
+					id,
 					cruiseId,
 					name: x.name,
 					coords: x.coords,
@@ -618,10 +639,13 @@ export function importDoc(actorId: string, cruiseId: string, doc: PlanDoc): Impo
 					ihoOrder: x.ihoOrder
 				})
 				.run();
-		for (const x of doc.stations)
+		}
+		for (const x of doc.stations) {
+			const id = newId();
+			joined.push({ kind: 'station', id });
 			tx.insert(station)
 				.values({
-					id: newId(),
+					id,
 					cruiseId,
 					name: x.name,
 					kind: x.kind,
@@ -630,6 +654,9 @@ export function importDoc(actorId: string, cruiseId: string, doc: PlanDoc): Impo
 					params: x.params
 				})
 				.run();
+		}
+		// Imported lines and stations join the order of work one by one, each at its cheapest place.
+		for (const j of joined) timelines.joinOrder(tx, cruiseId, [j]);
 		audit(tx, {
 			userId: actorId,
 			cruiseId,

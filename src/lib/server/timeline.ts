@@ -4,6 +4,8 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import {
 	buildTimeline,
+	cheapestInsertion,
+	type OrderableItem,
 	type Timeline,
 	type TimelineInput,
 	type TimelineItem
@@ -33,6 +35,8 @@ import {
 import { newId } from './ids';
 import * as plancache from './plancache';
 import type { planSettings } from './plancompute';
+
+type LonLatRO = import('../engine/geodesy').LonLat;
 
 type PlanRows = Parameters<typeof planSettings>[0] & {
 	lines: SurveyLine[];
@@ -287,6 +291,64 @@ export function build(
 
 export { eventKeys, returnAt } from '../schedule';
 
+/** How the plan sits in its allocation: the figures every page and the plan API show. */
+export interface Fit {
+	operatingDays: number;
+	allocatedDays: number;
+	overrunDays: number;
+	marginDays: number;
+	departureAt: number;
+	/** Back in port with the weather margin (before demobilisation). */
+	backInPortAt: number;
+	/** The allocated window from the cruise form; null where not set. */
+	window: { departureAt: number | null; returnAt: number | null };
+	/** Hours the plan runs past the allocated return (0 when it ends in time or none is set). */
+	pastWindowH: number;
+	/** True when the plan needs more days than allocated or ends after the allocated return. */
+	pastAllocation: boolean;
+	warnings: string[];
+}
+
+export function fit(built: { data: TimelineData; timeline: Timeline | null }): Fit | null {
+	const { data, timeline: t } = built;
+	if (!t || !data.input) return null;
+	const back = schedule.returnAt(t);
+	const windowEnd = data.cruise.returnAt?.getTime() ?? null;
+	const pastWindowH = windowEnd != null && back > windowEnd ? (back - windowEnd) / 3_600_000 : 0;
+	const late = schedule.windowWarning(back, windowEnd);
+	const warnings = late ? [...t.warnings, late] : [...t.warnings];
+	return {
+		operatingDays: t.totals.operatingDays,
+		allocatedDays: t.totals.allocatedDays,
+		overrunDays: t.totals.overrunDays,
+		marginDays: t.totals.marginDays,
+		departureAt: data.input.departure.at,
+		backInPortAt: back,
+		window: { departureAt: data.cruise.departureAt?.getTime() ?? null, returnAt: windowEnd },
+		pastWindowH,
+		pastAllocation: t.totals.overrunDays > 0 || pastWindowH > 0,
+		warnings
+	};
+}
+
+/** The fit for the JSON API (UTC ISO times). */
+export function fitToApi(f: Fit | null) {
+	if (!f) return null;
+	const iso = (ms: number | null) => (ms == null ? null : new Date(ms).toISOString());
+	return {
+		operatingDays: f.operatingDays,
+		allocatedDays: f.allocatedDays,
+		overrunDays: f.overrunDays,
+		marginDays: Math.round(f.marginDays * 1000) / 1000,
+		departureAt: iso(f.departureAt),
+		backInPortAt: iso(f.backInPortAt),
+		allocatedWindow: { departureAt: iso(f.window.departureAt), returnAt: iso(f.window.returnAt) },
+		pastWindowHours: Math.round(f.pastWindowH * 100) / 100,
+		pastAllocation: f.pastAllocation,
+		warnings: f.warnings
+	};
+}
+
 export function legSpans(t: Timeline, data: TimelineData): LegSpan[] {
 	return data.input ? schedule.legSpans(t, data.input) : [];
 }
@@ -404,16 +466,170 @@ export function setOrder(
 	});
 }
 
+/**
+ * New lines and stations join the order of work at their cheapest place (engine cheapestInsertion),
+ * whichever door they came in by (chart, API, import, area generation): every creating function of
+ * the plan calls this inside its own transaction. Lines of one survey area given together form one
+ * block; a line whose area already has lines in the order is placed next to them. Items already in
+ * the order are left where they are. Returns the new plan item ids.
+ */
+export function joinOrder(
+	d: Writer,
+	cruiseId: string,
+	refs: { kind: 'line' | 'station'; id: string }[]
+): string[] {
+	if (!refs.length) return [];
+	const c = d.select().from(cruise).where(eq(cruise.id, cruiseId)).get();
+	if (!c) throw new ApiError(404, 'No such cruise.');
+	const have = currentItems(d, cruiseId);
+	const lineRows = d.select().from(surveyLine).where(eq(surveyLine.cruiseId, cruiseId)).all();
+	const stationRows = d.select().from(station).where(eq(station.cruiseId, cruiseId)).all();
+	const portRows = d.select().from(port).all();
+	const lines = new Map(lineRows.map((l) => [l.id, l]));
+	const stations = new Map(stationRows.map((x) => [x.id, x]));
+	const ports = new Map(portRows.map((p) => [p.id, p]));
+
+	const orderable = (it: PlanItem): OrderableItem | null => {
+		if (it.kind === 'line' && it.lineId && lines.has(it.lineId)) {
+			const co = lines.get(it.lineId)!.coords;
+			return { id: it.id, ends: [co[0], co[co.length - 1]] };
+		}
+		if (it.kind === 'station' && it.stationId && stations.has(it.stationId)) {
+			const st = stations.get(it.stationId)!;
+			return { id: it.id, ends: [[st.lon, st.lat]] };
+		}
+		if (it.kind === 'port_call' && it.portId && ports.has(it.portId)) {
+			const pt = ports.get(it.portId)!;
+			return { id: it.id, ends: [[pt.lon, pt.lat]], fixed: true };
+		}
+		return null;
+	};
+	const route = have.flatMap((it) => {
+		const o = orderable(it);
+		return o
+			? [
+					{
+						item: o,
+						reversed: it.reversed,
+						areaId: it.lineId ? lines.get(it.lineId)?.areaId : null
+					}
+				]
+			: [];
+	});
+	const inOrder = new Set(have.map((i) => i.lineId ?? i.stationId));
+	const fresh = refs.filter(
+		(r) => !inOrder.has(r.id) && (r.kind === 'line' ? lines.has(r.id) : stations.has(r.id))
+	);
+
+	// Lines of one area given together make one block; everything else goes alone.
+	const blocks: {
+		areaId: string | null;
+		items: { ref: (typeof fresh)[number]; item: OrderableItem }[];
+	}[] = [];
+	for (const r of fresh) {
+		const id = newId();
+		const areaId = r.kind === 'line' ? (lines.get(r.id)!.areaId ?? null) : null;
+		const item: OrderableItem =
+			r.kind === 'line'
+				? (() => {
+						const co = lines.get(r.id)!.coords;
+						return { id, ends: [co[0], co[co.length - 1]] as [[number, number], [number, number]] };
+					})()
+				: { id, ends: [[stations.get(r.id)!.lon, stations.get(r.id)!.lat]] as [[number, number]] };
+		const block = areaId ? blocks.find((b) => b.areaId === areaId) : undefined;
+		if (block) block.items.push({ ref: r, item });
+		else blocks.push({ areaId, items: [{ ref: r, item }] });
+	}
+	if (!blocks.length) return [];
+
+	const dep = c.departurePortId ? ports.get(c.departurePortId) : undefined;
+	const ret = c.returnPortId ? ports.get(c.returnPortId) : undefined;
+	const added: string[] = [];
+	let seq = Math.max(0, ...have.map((x) => x.seq)) + 1;
+	for (const b of blocks) {
+		const first = b.items[0].item.ends[0];
+		const start: LonLatRO = dep ? [dep.lon, dep.lat] : (route[0]?.item.ends[0] ?? first);
+		const end: LonLatRO = ret ? [ret.lon, ret.lat] : start;
+		// Next to the lines of the same area, when some are already in the order.
+		const sib = route.flatMap((r, i) => (b.areaId && r.areaId === b.areaId ? [i] : []));
+		const within: [number, number] = sib.length
+			? [sib[0], sib[sib.length - 1] + 1]
+			: [0, route.length];
+		const ins = cheapestInsertion(
+			start,
+			end,
+			route,
+			b.items.map((x) => x.item),
+			within
+		);
+		const byId = new Map(b.items.map((x) => [x.item.id, x]));
+		for (const o of ins.items) {
+			const { ref } = byId.get(o.id)!;
+			d.insert(planItem)
+				.values({
+					id: o.id,
+					cruiseId,
+					seq: seq++,
+					kind: ref.kind,
+					reversed: o.reversed,
+					...(ref.kind === 'line' ? { lineId: ref.id } : { stationId: ref.id })
+				})
+				.run();
+			added.push(o.id);
+		}
+		route.splice(
+			ins.index,
+			0,
+			...ins.items.map((o) => ({
+				item: byId.get(o.id)!.item,
+				reversed: o.reversed,
+				areaId: b.areaId
+			}))
+		);
+	}
+	renumber(
+		d,
+		cruiseId,
+		route.map((r) => ({ id: r.item.id, reversed: r.reversed }))
+	);
+	return added;
+}
+
+/** Where addItem puts a line or station: at the end, or at its cheapest place (joinOrder). */
+export type Placement = 'end' | 'cheapest';
+
 export function addItem(
 	actorId: string,
 	cruiseId: string,
 	item:
 		| { kind: 'line' | 'station'; refId: string }
 		| { kind: 'port_call'; portId: string; hours: number },
-	d: Writer = appDb
+	d: Writer = appDb,
+	placement: Placement = 'end'
 ): string {
-	const id = newId();
+	let id = newId();
 	d.transaction((tx) => {
+		if (item.kind !== 'port_call' && placement === 'cheapest') {
+			const have = currentItems(tx, cruiseId);
+			const table = item.kind === 'line' ? surveyLine : station;
+			const found = tx
+				.select({ id: table.id })
+				.from(table)
+				.where(and(eq(table.id, item.refId), eq(table.cruiseId, cruiseId)))
+				.get();
+			if (!found) throw new ApiError(404, `No such ${item.kind} on this cruise.`);
+			if (have.some((x) => x.lineId === item.refId || x.stationId === item.refId))
+				throw new ApiError(409, `That ${item.kind} is already in the order.`);
+			id = joinOrder(tx, cruiseId, [{ kind: item.kind, id: item.refId }])[0];
+			touch(tx, cruiseId);
+			audit(tx, {
+				userId: actorId,
+				cruiseId,
+				action: 'timeline.item.added',
+				detail: { id, kind: item.kind, placement }
+			});
+			return;
+		}
 		const have = currentItems(tx, cruiseId);
 		const seq = (have.at(-1)?.seq ?? 0) + 1;
 		if (item.kind === 'port_call') {

@@ -518,14 +518,14 @@ export function calibration(
  * fitted) through the plan, so every prediction in the plan follows; audit-logged with the RMS
  * before and after.
  */
-export function applyCalibration(
+export async function applyCalibration(
 	actorId: string,
 	cruiseId: string,
 	trackId: string,
 	req: CalibrationRequest
-): CalibrationAnswer {
+): Promise<CalibrationAnswer> {
 	const c = calibration(cruiseId, trackId, req);
-	plan.update(actorId, cruiseId, req.segmentId, {
+	await plan.update(actorId, cruiseId, req.segmentId, {
 		properties: {
 			axialDepthM: c.after.axialDepthM,
 			...(req.fitRate ? { fullRateMmYr: c.after.fullRateMmYr } : {})

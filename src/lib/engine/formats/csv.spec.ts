@@ -2,34 +2,43 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { CSV_COLUMNS, readCsv, writeCsv } from './csv';
 import { EXPORT_CAUTION } from './shared';
-import { antimeridianPlan, pathLengthKm, samplePlan } from './testing';
+import { antimeridianPlan, pathLengthKm, roundedAsCsv, samplePlan } from './testing';
 
 describe('CSV waypoint list', () => {
-	it('round-trips lines and stations exactly; ridges and areas are not carried', () => {
+	it('round-trips lines and stations to their stated rounding; ridges and areas are not carried', () => {
 		const plan = samplePlan();
 		const back = readCsv(writeCsv(plan));
 		expect(back.problems).toEqual([]);
-		expect(back.plan).toEqual({ ...plan, ridges: [], areas: [] });
+		expect(back.plan).toEqual(roundedAsCsv({ ...plan, ridges: [], areas: [] }));
 	});
 
 	it('writes RFC 4180 records: CRLF, a header, quotes where needed [published] RFC 4180 §2', () => {
 		const text = writeCsv(samplePlan());
-		expect(text.startsWith('\uFEFF# ' + EXPORT_CAUTION)).toBe(true);
-		const lines = text.slice(1).split('\r\n');
-		expect(lines[2]).toBe(CSV_COLUMNS.join(','));
+		// The header is the first line: no byte order mark, no comment lines before it.
+		const lines = text.split('\r\n');
+		expect(lines[0]).toBe(CSV_COLUMNS.join(','));
 		expect(text.replace(/\r\n/g, '')).not.toContain('\n');
 		// A name with a comma and quotes is quoted with doubled quotes.
 		expect(text).toContain('"Mag tie, ""B"""');
-		const rows = Papa.parse<string[]>(lines.slice(2).join('\r\n'), { skipEmptyLines: true }).data;
+		const rows = Papa.parse<string[]>(lines.join('\r\n'), { skipEmptyLines: true }).data;
 		expect(rows.every((r) => r.length === CSV_COLUMNS.length)).toBe(true);
 		const col = (name: string) => CSV_COLUMNS.indexOf(name as (typeof CSV_COLUMNS)[number]);
 		const ctd = rows.find((r) => r[col('name')] === 'CTD 1')!;
-		expect(ctd[col('latitude_dd')]).toBe('52.4');
+		// Positions to 0.000001°, depths to 1 m, durations to 0.01 h (issue 13's rounding rule).
+		expect(ctd[col('latitude_dd')]).toBe('52.400000');
 		expect(ctd[col('latitude_dmm')]).toBe('52 24.000 N');
 		expect(ctd[col('longitude_dmm')]).toBe('31 15.000 W');
-		expect(ctd[col('predicted_depth_m')]).toBe('2900.25');
+		expect(ctd[col('predicted_depth_m')]).toBe('2900');
 		expect(ctd[col('planned_start_utc')]).toBe('2027-03-02T14:00:00Z');
 		expect(ctd[col('duration_h')]).toBe('2.75');
+		// The caution rides in the note column of the first row, the plan name in every row.
+		expect(rows[1][col('note')]).toBe(EXPORT_CAUTION);
+		expect(rows[2][col('note')]).toBe('');
+		expect(rows[1][col('plan')]).toBe(samplePlan().name);
+		const first = rows.find((r) => r[col('name')] === 'Line 01')!;
+		expect(first[col('length_km')]).toBe('111.12');
+		// [derived] 111.123456789 km / 1.852 = 60.0018 nm.
+		expect(first[col('length_nm')]).toBe('60.00');
 		// Cruise order: line 01 (3 vertices), CTD 1, D-2, mag tie (2), core, dive.
 		expect(rows.slice(1).map((r) => r[col('kind')])).toEqual([
 			'line',

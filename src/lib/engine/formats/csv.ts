@@ -1,11 +1,14 @@
 /**
- * CSV waypoint list (RFC 4180: CRLF line ends, fields quoted when needed): one row per station
- * and one row per survey-line vertex, in cruise order, with positions in decimal degrees and in
- * degrees-decimal-minutes. A line's own values repeat on each of its rows so that a sorted or
- * filtered spreadsheet still reads right; `vertex` numbers rebuild the lines.
+ * CSV waypoint list of the plan layers (RFC 4180: the header is the first line, CRLF line ends,
+ * fields quoted when needed): one row per station and one row per survey-line vertex, in the order
+ * of work, with positions in decimal degrees (0.000001°) and degrees-decimal-minutes (0.001′).
+ * A line's own values repeat on each of its rows so that a sorted or filtered spreadsheet still
+ * reads right; `vertex` numbers rebuild the lines; each vertex carries its predicted depth.
+ * Numbers are rounded to what they mean: depths 1 m, durations 0.01 h, lengths 0.01 km / nm.
  *
- * Deviations, on purpose: leading "#" comment lines carry the caution and plan name (the reader
- * skips them), and a UTF-8 byte order mark lets spreadsheet programs detect the encoding.
+ * The caution rides in the `note` column of the first row and the plan name in `plan`, so no comment
+ * line comes before the header (GDAL and spreadsheets would take it for the header). Files from
+ * earlier versions began with "#" lines; the reader still skips them.
  * What CSV does not carry: ridges and survey areas (they are not waypoints).
  */
 import Papa from 'papaparse';
@@ -18,6 +21,7 @@ import {
 	checkLonLat,
 	decimal,
 	emptyPlan,
+	fixed,
 	orderIfNeeded,
 	routeSequence,
 	stripBom,
@@ -50,9 +54,12 @@ export const CSV_COLUMNS = [
 	'overlap_pct',
 	'iho_order',
 	'length_km',
+	'length_nm',
 	'min_depth_m',
 	'max_depth_m',
-	'params_json'
+	'params_json',
+	'plan',
+	'note'
 ] as const;
 
 type Column = (typeof CSV_COLUMNS)[number];
@@ -75,16 +82,17 @@ export function quote(cell: string): string {
 	return /[",\r\n]|^\s|\s$/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell;
 }
 
-function num(v: number | undefined): string {
-	return v === undefined ? '' : decimal(v);
+/** Rounded to what the number means; '' when unknown. */
+function num(v: number | null | undefined, decimals: number): string {
+	return v === undefined || v === null ? '' : fixed(v, decimals);
 }
 
 function positionCells([lon, lat]: LonLat): Row {
 	return {
-		latitude_dd: decimal(lat),
-		longitude_dd: decimal(lon),
-		latitude_dmm: formatDMM(lat, 'lat', { style: 'ascii' }),
-		longitude_dmm: formatDMM(lon, 'lon', { style: 'ascii' })
+		latitude_dd: fixed(lat, 6),
+		longitude_dd: fixed(lon, 6),
+		latitude_dmm: formatDMM(lat, 'lat', { style: 'ascii', decimals: 3 }),
+		longitude_dmm: formatDMM(lon, 'lon', { style: 'ascii', decimals: 3 })
 	};
 }
 
@@ -98,10 +106,10 @@ export function writeCsv(plan: PlanDoc): string {
 				name: guardText(s.name),
 				kind: s.kind,
 				...positionCells(s.position),
-				predicted_depth_m: num(s.computed?.depthM),
+				predicted_depth_m: num(s.computed?.depthM, 0),
 				planned_start_utc: s.plannedStart ?? '',
 				planned_end_utc: s.plannedEnd ?? '',
-				duration_h: num(s.computed?.durationH),
+				duration_h: num(s.computed?.durationH, 2),
 				params_json: Object.keys(s.params).length ? guardText(JSON.stringify(s.params)) : ''
 			});
 		} else {
@@ -113,29 +121,42 @@ export function writeCsv(plan: PlanDoc): string {
 					kind: 'line',
 					vertex: String(i + 1),
 					...positionCells(c),
+					predicted_depth_m: num(l.vertexDepthsM?.[i], 0),
 					planned_start_utc: l.plannedStart ?? '',
 					planned_end_utc: l.plannedEnd ?? '',
-					duration_h: num(l.computed?.durationH),
+					duration_h: num(l.computed?.durationH, 2),
 					purpose: l.purpose,
 					survey_speed_kn: decimal(l.surveySpeedKn),
 					overlap_pct: decimal(l.overlapPct),
 					iho_order: l.ihoOrder,
-					length_km: num(l.computed?.lengthKm),
-					min_depth_m: num(l.computed?.minDepthM),
-					max_depth_m: num(l.computed?.maxDepthM)
+					length_km: num(l.computed?.lengthKm, 2),
+					length_nm: num(l.computed ? l.computed.lengthKm / 1.852 : undefined, 2),
+					min_depth_m: num(l.computed?.minDepthM, 0),
+					max_depth_m: num(l.computed?.maxDepthM, 0)
 				});
 			});
 		}
 	}
+	const planName = guardText(plan.name.replace(/[\r\n]+/g, ' '));
 	const lines = [
-		`# ${EXPORT_CAUTION}`,
-		PLAN_NAME_PREFIX + plan.name.replace(/[\r\n]+/g, ' '),
 		CSV_COLUMNS.join(','),
 		...rows.map((r, i) =>
-			CSV_COLUMNS.map((c) => quote(c === 'no' ? String(i + 1) : (r[c] ?? ''))).join(',')
+			CSV_COLUMNS.map((c) =>
+				quote(
+					c === 'no'
+						? String(i + 1)
+						: c === 'plan'
+							? planName
+							: c === 'note'
+								? i === 0
+									? EXPORT_CAUTION
+									: ''
+								: (r[c] ?? '')
+				)
+			).join(',')
 		)
 	];
-	return '\uFEFF' + lines.join('\r\n') + '\r\n';
+	return lines.join('\r\n') + '\r\n';
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -269,6 +290,7 @@ export function readCsv(input: string): ImportResult {
 			if (at !== undefined && cells[at] !== undefined) row[col] = cells[at];
 		}
 		const where = `line ${line}`;
+		if (row.plan && plan.name === emptyPlan().name) plan.name = unguardText(row.plan);
 		const lat = coordinate(row.latitude_dd, row.latitude_dmm, 'lat');
 		const lon = coordinate(row.longitude_dd, row.longitude_dmm, 'lon');
 		if (lat.value === undefined || lon.value === undefined) {

@@ -78,6 +78,8 @@ export function writeGeoJson(plan: PlanDoc): string {
 			})
 		);
 	}
+	// `order`: the 1-based place in the order of work, when the plan has one.
+	let orderNo = 1;
 	for (const step of routeSequence(plan)) {
 		if (step.kind === 'line') {
 			const l = plan.lines[step.index];
@@ -90,6 +92,9 @@ export function writeGeoJson(plan: PlanDoc): string {
 					overlapPct: l.overlapPct,
 					ihoOrder: l.ihoOrder,
 					...l.computed,
+					vertexDepthsM: l.vertexDepthsM,
+					order: plan.order ? orderNo++ : undefined,
+					reversed: step.reversed || undefined,
 					plannedStart: l.plannedStart,
 					plannedEnd: l.plannedEnd
 				})
@@ -106,6 +111,7 @@ export function writeGeoJson(plan: PlanDoc): string {
 						stationKind: s.kind,
 						params: s.params,
 						...s.computed,
+						order: plan.order ? orderNo++ : undefined,
 						plannedStart: s.plannedStart,
 						plannedEnd: s.plannedEnd
 					}
@@ -119,6 +125,15 @@ export function writeGeoJson(plan: PlanDoc): string {
 		name: plan.name,
 		caution: EXPORT_CAUTION,
 		generator: GENERATOR,
+		...(plan.meta
+			? {
+					cruise: plan.meta.cruise,
+					vessel: plan.meta.vessel,
+					depthModel: plan.meta.depthModel,
+					departureAt: plan.meta.departureAt,
+					backInPortAt: plan.meta.backInPortAt
+				}
+			: {}),
 		features
 	};
 	return JSON.stringify(fc, null, 1) + '\n';

@@ -25,6 +25,7 @@ const PLACEMARK_SEQ = [
 	'name',
 	'description',
 	'TimeSpan',
+	'styleUrl',
 	'ExtendedData',
 	'Point',
 	'LineString',
@@ -54,6 +55,13 @@ describe('KML 2.2', () => {
 			(d) => d.attrs.name
 		);
 		expect(data).toEqual(['kind', 'id', 'stationKind', 'params', 'depthM', 'durationH']);
+		// A style per kind in the document, and each placemark points at its kind's style.
+		const styleIds = childrenNamed(doc, 'Style').map((s) => s.attrs.id);
+		expect(styleIds).toEqual(['wl-ridge', 'wl-area', 'wl-line', 'wl-station']);
+		expect(childNamed(station, 'styleUrl')!.text).toBe('#wl-station');
+		// Planned times become a KML TimeSpan (KML 2.2 §9.2).
+		const span = childNamed(station, 'TimeSpan')!;
+		expect(childNamed(span, 'begin')!.text).toBe('2027-03-02T14:00:00Z');
 		const ring = childNamed(
 			childNamed(childNamed(pms[2], 'Polygon')!, 'outerBoundaryIs')!,
 			'LinearRing'

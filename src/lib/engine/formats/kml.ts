@@ -57,6 +57,47 @@ function extendedData(data: Record<string, DataValue>): XmlOut {
 	};
 }
 
+/** One shared style per kind (KML 2.2 §10.7), colours as aabbggrr; placemarks point at it. */
+const STYLES: Record<string, { line?: string; width?: number; poly?: string; icon?: string }> = {
+	ridge: { line: 'ff2a2ad6', width: 3 },
+	area: { line: 'ff1f7a3d', width: 2, poly: '401f7a3d' },
+	line: { line: 'ffc26a1a', width: 2 },
+	station: { icon: 'ff0d8fe0' }
+};
+
+function styles(): XmlOut[] {
+	return Object.entries(STYLES).map(([kind, st]) => ({
+		name: 'Style',
+		attrs: { id: `wl-${kind}` },
+		children: [
+			st.icon
+				? {
+						name: 'IconStyle',
+						children: [
+							{ name: 'color', text: st.icon },
+							{ name: 'scale', text: '1.1' }
+						]
+					}
+				: null,
+			st.line
+				? {
+						name: 'LineStyle',
+						children: [
+							{ name: 'color', text: st.line },
+							{ name: 'width', text: String(st.width ?? 2) }
+						]
+					}
+				: null,
+			st.poly
+				? {
+						name: 'PolyStyle',
+						children: [{ name: 'color', text: st.poly }]
+					}
+				: null
+		]
+	}));
+}
+
 function placemark(
 	name: string,
 	description: string | undefined,
@@ -74,13 +115,15 @@ function placemark(
 					]
 				}
 			: null;
-	// KML 2.2 schema order inside a Placemark: name, description, TimePrimitive, ExtendedData, Geometry.
+	// KML 2.2 schema order inside a Placemark: name, description, TimePrimitive, styleUrl,
+	// ExtendedData, Geometry.
 	return {
 		name: 'Placemark',
 		children: [
 			{ name: 'name', text: name },
 			description ? { name: 'description', text: description } : null,
 			span,
+			typeof data.kind === 'string' ? { name: 'styleUrl', text: `#wl-${data.kind}` } : null,
 			extendedData(data),
 			geometry
 		]
@@ -187,6 +230,7 @@ export function writeKml(plan: PlanDoc): string {
 				children: [
 					{ name: 'name', text: plan.name },
 					{ name: 'description', text: EXPORT_CAUTION },
+					...styles(),
 					folder('Ridge axes', ridges),
 					folder('Survey areas', areas),
 					folder('Cruise route: lines and stations', route)

@@ -103,6 +103,12 @@ export function decimal(n: number): string {
 	);
 }
 
+/** Fixed decimals, never "-0": numbers rounded to what they mean (0.000001°, 1 m, 0.01 h). */
+export function fixed(x: number, decimals: number): string {
+	const s = x.toFixed(decimals);
+	return /^-0(\.0*)?$/.test(s) ? s.slice(1) : s;
+}
+
 /** Letters that Unicode decomposition does not reduce to ASCII. */
 const TRANSLITERATE: Record<string, string> = {
 	Æ: 'AE',
@@ -144,7 +150,7 @@ export function routeSequence(plan: PlanDoc): PlanOrderEntry[] {
 			return;
 		}
 		seen.add(key);
-		out.push({ kind: e.kind, index: e.index });
+		out.push({ kind: e.kind, index: e.index, ...(e.reversed ? { reversed: true } : {}) });
 	};
 	for (const e of plan.order ?? []) add(e);
 	plan.lines.forEach((_, index) => add({ kind: 'line', index }));

@@ -241,3 +241,36 @@ export function sequenceViolations(
 	}
 	return problems;
 }
+
+/**
+ * The plan as a CSV export carries it: positions to 0.000001°, depths to 1 m, durations to 0.01 h,
+ * lengths to 0.01 km (the rounding rule of the CSV writer, applied here by hand) [derived].
+ */
+export function roundedAsCsv(plan: PlanDoc): PlanDoc {
+	const r = (x: number, n: number) => Number(x.toFixed(n)) || 0;
+	const pos = ([lon, lat]: [number, number]): [number, number] => [r(lon, 6), r(lat, 6)];
+	return {
+		...plan,
+		lines: plan.lines.map((l) => ({
+			...l,
+			coords: l.coords.map(pos),
+			...(l.computed
+				? {
+						computed: {
+							lengthKm: r(l.computed.lengthKm, 2),
+							durationH: r(l.computed.durationH, 2),
+							minDepthM: r(l.computed.minDepthM, 0),
+							maxDepthM: r(l.computed.maxDepthM, 0)
+						}
+					}
+				: {})
+		})),
+		stations: plan.stations.map((s) => ({
+			...s,
+			position: pos(s.position),
+			...(s.computed
+				? { computed: { depthM: r(s.computed.depthM, 0), durationH: r(s.computed.durationH, 2) } }
+				: {})
+		}))
+	};
+}

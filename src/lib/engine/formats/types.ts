@@ -42,6 +42,8 @@ export interface PlanLine {
 	overlapPct: number;
 	ihoOrder: IhoOrder;
 	computed?: LineComputed;
+	/** Predicted depth (m) at each vertex, where a ridge makes it known. */
+	vertexDepthsM?: (number | null)[];
 	/** UTC, ISO 8601. */
 	plannedStart?: string;
 	plannedEnd?: string;
@@ -85,12 +87,25 @@ export interface PlanDoc {
 	 * index:0}]. Without it the route runs all lines, then all stations.
 	 */
 	order?: PlanOrderEntry[];
+	/** Who and what the plan is for; written where a format has room (GeoJSON foreign members). */
+	meta?: PlanMeta;
+}
+
+export interface PlanMeta {
+	cruise: { code: string; title: string };
+	vessel: { name: string; callSign: string | null } | null;
+	depthModel: string;
+	/** Planned sailing and return (with the weather margin), UTC ISO 8601. */
+	departureAt?: string;
+	backInPortAt?: string;
 }
 
 export interface PlanOrderEntry {
 	kind: 'line' | 'station';
 	/** Index into `lines` or `stations`. */
 	index: number;
+	/** A line run from its last vertex to its first. */
+	reversed?: boolean;
 }
 
 export interface ImportProblem {

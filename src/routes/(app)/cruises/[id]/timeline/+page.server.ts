@@ -12,6 +12,7 @@ import {
 import { ApiError } from '$lib/server/api';
 import * as guards from '$lib/server/guards';
 import * as timelines from '$lib/server/timeline';
+import { WEATHER_MARGIN_RULE } from '$lib/engine/timeline';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -26,6 +27,8 @@ export const load: PageServerLoad = async (event) => {
 		unordered: data.unordered,
 		ports: data.ports.map((p) => ({ id: p.id, name: p.name })),
 		clockChanges: data.clockChanges,
+		allocatedReturnAt: data.cruise.returnAt?.getTime() ?? null,
+		marginRule: WEATHER_MARGIN_RULE,
 		timingForm: await superValidate(timelines.settingsOf(data.cruise), zod4(timingSchema), {
 			id: 'timing'
 		}),
@@ -76,11 +79,11 @@ export const actions: Actions = {
 		if (!form.valid) return fail(400, { problem: 'Choose a line or station to add.' });
 		const [kind, refId] = form.data.ref.split(':') as ['line' | 'station', string];
 		try {
-			timelines.addItem(user.id, cruise.id, { kind, refId });
+			timelines.addItem(user.id, cruise.id, { kind, refId }, undefined, 'cheapest');
 		} catch (e) {
 			return refused(e);
 		}
-		return { done: 'Added at the end of the order.' };
+		return { done: 'Added to the order of work where it adds the least transit.' };
 	},
 	port: async (event) => {
 		const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');

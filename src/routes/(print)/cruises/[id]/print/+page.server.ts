@@ -3,6 +3,7 @@ import * as clearances from '$lib/server/clearances';
 import * as cruises from '$lib/server/cruises';
 import * as guards from '$lib/server/guards';
 import * as timelines from '$lib/server/timeline';
+import { WEATHER_MARGIN_RULE } from '$lib/engine/timeline';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = (event) => {
@@ -32,6 +33,8 @@ export const load: PageServerLoad = (event) => {
 			firstEntryAt: c.firstEntryAt,
 			changed: c.changedSinceSubmission
 		})),
+		fit: timelines.fit(built),
+		marginRule: WEATHER_MARGIN_RULE,
 		printedAt: Date.now()
 	};
 };

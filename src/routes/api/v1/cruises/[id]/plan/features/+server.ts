@@ -8,5 +8,7 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = api(async (event) => {
 	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 	const input = await readJson(event, newFeatureSchema);
-	return json(await plan.create(user.id, cruise.id, input), { status: 201 });
+	// `fit` (RFC 7946 foreign member): the plan against its allocation after this change.
+	const created = await plan.create(user.id, cruise.id, input);
+	return json({ ...created, fit: plan.fit(cruise.id) }, { status: 201 });
 });

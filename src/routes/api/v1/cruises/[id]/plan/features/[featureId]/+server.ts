@@ -13,7 +13,8 @@ export const GET: RequestHandler = api(async (event) => {
 export const PATCH: RequestHandler = api(async (event) => {
 	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 	const patch = await readJson(event, featurePatchSchema);
-	return json(await plan.update(user.id, cruise.id, event.params.featureId, patch));
+	const updated = await plan.update(user.id, cruise.id, event.params.featureId, patch);
+	return json({ ...updated, fit: plan.fit(cruise.id) });
 });
 
 export const DELETE: RequestHandler = api((event) => {

@@ -30,6 +30,6 @@ export const POST: RequestHandler = api(async (event) => {
 	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 	const body = await readJson(event, calibrationSchema);
 	return json({
-		calibration: tracks.applyCalibration(user.id, cruise.id, event.params.trackId, body)
+		calibration: await tracks.applyCalibration(user.id, cruise.id, event.params.trackId, body)
 	});
 });
