@@ -184,6 +184,8 @@ for (const n of [50, 500, 5000]) {
 		});
 		report.push([`(e) ${name}: ${s.count} exact nearest-point queries`, q, '']);
 	}
+}
+
 // (f) 1 000 000 MGD77T fixes: read (streamed) + residuals
 const trackNotes: string[] = [];
 {

@@ -568,6 +568,9 @@ function seedPublication(db: Db) {
 		.where(and(eq(t.planItem.cruiseId, cruiseId), eq(t.planItem.kind, 'port_call')))
 		.get()!;
 	timelines.setPortCallHours(chief, cruiseId, call.id, (call.portCallHours ?? 36) + 6, db);
+}
+
+/**
  * An invented earlier crossing of the northern segment, east–west along 29.8°S, one fix a minute
  * at 10 kn: the cruise's own model plus 180 m (a slightly thinner crust than assumed), a
  * 350 m-high seamount on the western flank and deterministic noise of ±60 m, written as MGD77T

@@ -24,7 +24,7 @@ const PUBLIC: Record<string, string> = {
 		'the payment service calls it; the signature over the raw body is the credential',
 	'(auth)/unsubscribe/[token]/+page.server.ts':
 		'RFC 8058 one-click unsubscribe works without signing in; the single-use token is the credential',
-	'(auth)/unsubscribe/[token]/+server.ts': 'the one-click POST of RFC 8058, token as credential',
+	'(auth)/unsubscribe/[token]/+server.ts': 'the one-click POST of RFC 8058, token as credential'
 };
 
 interface RouteFile {

@@ -77,10 +77,7 @@ export const areaProps = z.object({
 export const stationProps = z.object({
 	stationKind: z.enum(['ctd', 'dredge', 'core', 'dive']),
 	params: z
-		.record(
-			z.string().max(40),
-			z.union([bounded('stationParam'), z.string().max(80)])
-		)
+		.record(z.string().max(40), z.union([bounded('stationParam'), z.string().max(80)]))
 		.refine(
 			(p) => Object.keys(p).length <= SIZES.stationParams,
 			`at most ${SIZES.stationParams} settings`

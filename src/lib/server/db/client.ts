@@ -33,7 +33,9 @@ export function migrateDb(db: Db, migrationsFolder = resolve('drizzle')) {
 		migrate(db, { migrationsFolder });
 		const broken = sqlite.pragma('foreign_key_check') as unknown[];
 		if (broken.length)
-			throw new Error(`the migration left ${broken.length} broken references: ${JSON.stringify(broken.slice(0, 5))}`);
+			throw new Error(
+				`the migration left ${broken.length} broken references: ${JSON.stringify(broken.slice(0, 5))}`
+			);
 	} finally {
 		sqlite.pragma('foreign_keys = ON');
 	}

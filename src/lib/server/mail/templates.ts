@@ -255,6 +255,10 @@ export function reminder(p: {
 		text:
 			`${p.title} for cruise ${p.cruiseCode} is due ${when}, on ${utcDate(p.dueAt)} (UTC).\n\n` +
 			`${p.what}\n\nOpen the cruise: ${p.link}` +
+			SIGNATURE
+	};
+}
+
 /** A berth decision for one leg. Says nothing about documents, health or anyone else. */
 export function berthDecision(p: {
 	name: string;
