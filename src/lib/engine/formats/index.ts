@@ -128,7 +128,10 @@ export function sizeProblems(plan: PlanDoc): ImportProblem[] {
 	};
 	for (const kind of ['ridges', 'lines', 'areas', 'stations'] as const) {
 		if (plan[kind].length > SIZES.planItems) {
-			err('file', `at most ${SIZES.planItems} ${kind} in one plan; this file has ${plan[kind].length}`);
+			err(
+				'file',
+				`at most ${SIZES.planItems} ${kind} in one plan; this file has ${plan[kind].length}`
+			);
 			plan[kind].length = SIZES.planItems;
 		}
 	}
