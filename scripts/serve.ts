@@ -3,7 +3,6 @@
 import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { existsSync } from 'node:fs';
-import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import { createInterface } from 'node:readline';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -75,17 +74,7 @@ if (!existsSync(entry)) {
 	console.error('No build found. Run `npm run build` first (npm start does it for you).');
 	process.exit(1);
 }
-// adapter-node's handler behind our own HTTP server, so that static assets (served before the
-// app's hooks run) carry nosniff too.
-const { handler } = (await import(pathToFileURL(resolve(entry, '../handler.js')).href)) as {
-	handler: (req: IncomingMessage, res: ServerResponse) => void;
-};
-const server = createServer((req, res) => {
-	res.setHeader('X-Content-Type-Options', 'nosniff');
-	handler(req, res);
-});
-closers.push(() => server.close());
-await new Promise<void>((ok) => server.listen(port, host, ok));
+await import(pathToFileURL(entry).href);
 
 const shown = process.env.ORIGIN;
 console.log(`

@@ -30,6 +30,11 @@ test('the demo cruise shows its whole plan on the chart, with nothing fetched fr
 	page
 }) => {
 	const outside: string[] = [];
+	// The Content-Security-Policy must let the chart draw: no violation reported in the console.
+	const violations: string[] = [];
+	page.on('console', (m) => {
+		if (/Content Security Policy/i.test(m.text())) violations.push(m.text());
+	});
 	page.on('request', (r) => {
 		const u = new URL(r.url());
 		if (u.hostname !== '127.0.0.1' && !['data:', 'blob:'].includes(u.protocol))
@@ -59,6 +64,7 @@ test('the demo cruise shows its whole plan on the chart, with nothing fetched fr
 	await page.waitForTimeout(1500);
 	await shot(page, 'chart-demo-globe');
 	expect(outside).toEqual([]);
+	expect(violations).toEqual([]);
 });
 
 test('the chief scientist draws a ridge axis and a line and sees the predicted profile', async ({

@@ -14,8 +14,14 @@ export const actions: Actions = {
 	default: async (event) => {
 		const form = await superValidate(event.request, zod4(resetRequestSchema));
 		if (!form.valid) return fail(400, { form });
+		let client = 'unknown';
 		try {
-			await users.requestPasswordReset(form.data.email, event.getClientAddress());
+			client = event.getClientAddress();
+		} catch {
+			// no address header (e.g. a direct local request behind ADDRESS_HEADER): one shared bucket
+		}
+		try {
+			await users.requestPasswordReset(form.data.email, client);
 		} catch (e) {
 			if (e instanceof users.RateLimited) return message(form, e.message, { status: 429 });
 			throw e;
