@@ -314,11 +314,13 @@ describe('deleting a cruise', () => {
 
 	it('the admin deletes the demo cruise: the confirmation counts what goes, everything goes, uploads too', async () => {
 		// Two uploaded documents: one only this cruise names, one another cruise also names.
+		// Stored as the upload store lays them out: UPLOAD_DIR/<first two hex digits>/<sha256>.
 		const uploads = join(srv.dir, 'uploads');
-		mkdirSync(uploads, { recursive: true });
+		const stored = (sha: string) => join(uploads, sha.slice(0, 2), sha);
 		const mk = (text: string) => {
 			const sha = createHash('sha256').update(text).digest('hex');
-			writeFileSync(join(uploads, sha), text);
+			mkdirSync(join(uploads, sha.slice(0, 2)), { recursive: true });
+			writeFileSync(stored(sha), text);
 			return sha;
 		};
 		const only = mk('medical form of one participant');
@@ -331,7 +333,7 @@ describe('deleting a cruise', () => {
 					id: `doc-${cruiseId}-${sha256.slice(0, 6)}`,
 					cruiseId,
 					userId: participant.id,
-					kind: 'certificate',
+					kind: 'sea_survival',
 					filename: 'x.pdf',
 					mimeType: 'application/pdf',
 					sizeBytes: 10,
@@ -390,8 +392,8 @@ describe('deleting a cruise', () => {
 		expect(entry.cruiseId).toBeNull();
 		expect(entry.detail).toMatchObject({ cruiseId: demoId, code: 'MT27-03' });
 		// The upload only this cruise named is gone; the shared one stays.
-		expect(existsSync(join(uploads, only))).toBe(false);
-		expect(existsSync(join(uploads, shared))).toBe(true);
+		expect(existsSync(stored(only))).toBe(false);
+		expect(existsSync(stored(shared))).toBe(true);
 		expect((await get(`/cruises/${demoId}`, 'admin')).status).toBe(404);
 	});
 });

@@ -1,7 +1,5 @@
 // Cruises, their members and legs.
 import { and, asc, count, eq, inArray, ne, sql } from 'drizzle-orm';
-import { rmSync } from 'node:fs';
-import { join } from 'node:path';
 import type { SQLiteColumn, SQLiteTable } from 'drizzle-orm/sqlite-core';
 import { toUtc, type CruiseInput } from '$lib/schemas/cruise';
 import { audit } from './audit';
@@ -31,6 +29,7 @@ import { roleLabel } from './guards';
 import { hashSecret, newId, newSecret } from './ids';
 import * as outbox from './mail/outbox';
 import * as templates from './mail/templates';
+import * as uploads from './storage/uploads';
 import * as timelines from './timeline';
 import { DomainError, INVITATION_LIFETIME_DAYS, normaliseEmail, openInvitation } from './users';
 
@@ -455,8 +454,7 @@ function countOf(table: SQLiteTable & { cruiseId: SQLiteColumn }, cruiseId: stri
  * naming it does. A missing file is not an error (it may never have been written).
  */
 function discardUpload(sha256: string) {
-	if (!/^[0-9a-f]{64}$/.test(sha256)) return;
-	rmSync(join(config.uploadDir, sha256), { force: true });
+	if (/^[0-9a-f]{64}$/.test(sha256)) uploads.remove(sha256);
 }
 
 export function deleteImpact(cruiseId: string): DeleteImpact {
