@@ -1,16 +1,25 @@
 // The mail outbox. Callers enqueue inside their own transaction (after the change is decided);
 // the worker delivers over SMTP and retries with exponential backoff, so a mail server that is down
-// loses nothing. After MAX_ATTEMPTS a message is marked failed and shown to admins.
-import { and, asc, eq, lte } from 'drizzle-orm';
+// loses nothing. After MAX_ATTEMPTS a message is marked failed and shown to admins, who can retry it
+// at once; a message that failed only because the server could not be reached goes out again by
+// itself as soon as the server answers. A refusal the server calls permanent (RFC 5321 reply code
+// 5yz, e.g. an unknown mailbox) is not retried on its own.
+import { and, asc, desc, eq, inArray, lte, not, like } from 'drizzle-orm';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { config } from '../config';
 import { db as appDb } from '../db';
 import type { Db } from '../db/client';
 import { notice } from '../db/schema';
 import { newId } from '../ids';
+import { RESET_LIFETIME_MINUTES } from '../users';
 import { textToHtml } from './templates';
 
 export const MAX_ATTEMPTS = 8;
+/** lastError prefix of a refusal the mail server called permanent (reply code 5yz). */
+export const PERMANENT = '[permanent] ';
+/** How long the link in a message of this kind works, if it expires (read at call time: users.ts imports this module). */
+const linkLifetimeMs = (kind: string): number | undefined =>
+	kind === 'password_reset' ? RESET_LIFETIME_MINUTES * 60_000 : undefined;
 const BASE_BACKOFF_MS = 30_000;
 const MAX_BACKOFF_MS = 3_600_000;
 
@@ -94,14 +103,18 @@ async function doSweep(db: Db, now: Date): Promise<number> {
 		.all();
 	let sent = 0;
 	for (const m of due) {
+		// A link that expired while the message waited is not sent as if it worked.
+		const lifetime = linkLifetimeMs(m.kind);
+		const stale = lifetime !== undefined && now.getTime() - m.createdAt.getTime() > lifetime;
+		const text = stale ? expiredText(m.subject) : m.text;
 		try {
 			const info = await transport().sendMail({
 				from: config.mailFrom,
 				to: m.toAddress,
-				subject: m.subject,
-				text: m.text,
+				subject: stale ? `${m.subject} (link expired)` : m.subject,
+				text,
 				// Every mail has an HTML part beside the plain text.
-				html: m.html ?? textToHtml(m.text),
+				html: stale ? textToHtml(text) : (m.html ?? textToHtml(m.text)),
 				headers: m.headers ?? undefined,
 				icalEvent: m.icsAttachment
 					? { filename: 'schedule.ics', method: 'PUBLISH', content: m.icsAttachment }
@@ -120,18 +133,67 @@ async function doSweep(db: Db, now: Date): Promise<number> {
 			sent++;
 		} catch (e) {
 			const attempts = m.attempts + 1;
+			const code = (e as { responseCode?: number }).responseCode ?? 0;
+			const permanent = code >= 500 && code < 600;
 			db.update(notice)
 				.set({
 					attempts,
-					lastError: (e as Error).message.slice(0, 500),
-					status: attempts >= MAX_ATTEMPTS ? 'failed' : 'queued',
+					lastError: ((permanent ? PERMANENT : '') + (e as Error).message).slice(0, 500),
+					status: permanent || attempts >= MAX_ATTEMPTS ? 'failed' : 'queued',
 					nextAttemptAt: new Date(Date.now() + backoffMs(attempts))
 				})
 				.where(eq(notice.id, m.id))
 				.run();
 		}
 	}
+	// The server answered: what was given up while it could not be reached goes out again.
+	if (sent > 0)
+		requeue(db, and(eq(notice.status, 'failed'), not(like(notice.lastError, `${PERMANENT}%`))));
 	return sent;
+}
+
+function expiredText(subject: string): string {
+	return (
+		`This message ("${subject}") could not be delivered while its link still worked, so the link ` +
+		`is left out. Ask for a new one at ${config.origin}/reset.`
+	);
+}
+
+function requeue(db: Db, where: ReturnType<typeof and>): number {
+	return db
+		.update(notice)
+		.set({ status: 'queued', attempts: 0, nextAttemptAt: new Date() })
+		.where(where)
+		.run().changes;
+}
+
+/** Admin "retry now": the given failed (or waiting) messages are sent at the next sweep. */
+export function retryNow(ids: string[], db: Db = appDb): number {
+	if (!ids.length) return 0;
+	const n = requeue(db, and(inArray(notice.id, ids), inArray(notice.status, ['failed', 'queued'])));
+	kick();
+	return n;
+}
+
+/** The newest messages for the admins' outbox list. */
+export function recent(limit = 100, db: Db = appDb) {
+	return db
+		.select({
+			id: notice.id,
+			kind: notice.kind,
+			toAddress: notice.toAddress,
+			subject: notice.subject,
+			status: notice.status,
+			attempts: notice.attempts,
+			lastError: notice.lastError,
+			createdAt: notice.createdAt,
+			sentAt: notice.sentAt,
+			nextAttemptAt: notice.nextAttemptAt
+		})
+		.from(notice)
+		.orderBy(desc(notice.createdAt))
+		.limit(limit)
+		.all();
 }
 
 let timer: ReturnType<typeof setInterval> | null = null;
