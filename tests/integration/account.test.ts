@@ -84,3 +84,52 @@ describe('personal API tokens', () => {
 		expect(res.type).toBe('failure');
 	});
 });
+
+describe('sign out everywhere', () => {
+	const bearerWorks = async (token: string) =>
+		(await fetch(`${srv.url}/api/v1/me`, { headers: { authorization: `Bearer ${token}` } }))
+			.status === 200;
+
+	it('lists the API tokens it can revoke and, when asked, revokes them with the sessions', async () => {
+		const master = (await signIn(srv.url, DEMO.master)).cookie!;
+		const as = (name: string, fields: Record<string, string>, path = '/account') =>
+			fetch(`${srv.url}${path}?/${name}`, {
+				method: 'POST',
+				body: new URLSearchParams(fields),
+				headers: {
+					cookie: master,
+					origin: srv.url,
+					accept: 'application/json',
+					'x-sveltekit-action': 'true'
+				}
+			});
+		const created = await (await as('createToken', { name: 'bridge script' })).json();
+		const token = JSON.stringify(created.data).match(/wlt_[a-z2-7]+/)![0];
+		expect(await bearerWorks(token)).toBe(true);
+
+		// The account page names the token beside the choice.
+		const page = await (await fetch(`${srv.url}/account`, { headers: { cookie: master } })).text();
+		expect(page).toMatch(/Also revoke my API tokens:[^<]*bridge script \(wlt_/);
+
+		// Without the box ticked the token keeps working; the session does not.
+		const second = (await signIn(srv.url, DEMO.master)).cookie!;
+		await as('everywhere', {}, '/signout');
+		expect(await bearerWorks(token)).toBe(true);
+		const me = await fetch(`${srv.url}/api/v1/me`, { headers: { cookie: second } });
+		expect(me.status).toBe(401);
+
+		// With the box ticked, the tokens go too.
+		const third = (await signIn(srv.url, DEMO.master)).cookie!;
+		await fetch(`${srv.url}/signout?/everywhere`, {
+			method: 'POST',
+			body: new URLSearchParams({ revokeTokens: 'on' }),
+			headers: {
+				cookie: third,
+				origin: srv.url,
+				accept: 'application/json',
+				'x-sveltekit-action': 'true'
+			}
+		});
+		expect(await bearerWorks(token)).toBe(false);
+	});
+});

@@ -17,6 +17,17 @@ export const passwordPairSchema = z
 		path: ['confirm']
 	});
 
+/** A reset may also revoke the account's API tokens (they are listed beside the choice). */
+export const resetPasswordSchema = z
+	.object({ password: newPassword, confirm: z.string(), revokeTokens: z.boolean().default(false) })
+	.refine((v) => v.password === v.confirm, {
+		message: 'The two passwords differ.',
+		path: ['confirm']
+	});
+
+/** Signing out everywhere may also revoke the account's API tokens. */
+export const signOutEverywhereSchema = z.object({ revokeTokens: z.boolean().default(false) });
+
 export const acceptInvitationSchema = z
 	.object({
 		name: z.string().trim().min(2, 'Enter your name.').max(120),

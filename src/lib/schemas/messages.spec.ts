@@ -96,7 +96,7 @@ describe('plain schema messages', () => {
 			'Days (− before): at most 730.'
 		);
 		expect(messages(vesselSchema.safeParse({ transitSpeedKn: 0 })).transitSpeedKn).toBe(
-			'Transit speed (kn): above 0.'
+			'Transit speed (kn): at least 2.'
 		);
 	});
 });

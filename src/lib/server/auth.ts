@@ -176,3 +176,12 @@ export function revokeApiToken(db: Db, userId: string, tokenId: string): boolean
 		.run();
 	return res.changes > 0;
 }
+
+/** Revokes every live API token of an account (sign out everywhere, a password reset); returns how many. */
+export function revokeAllApiTokens(db: Db, userId: string): number {
+	return db
+		.update(apiToken)
+		.set({ revokedAt: new Date() })
+		.where(and(eq(apiToken.userId, userId), isNull(apiToken.revokedAt)))
+		.run().changes;
+}

@@ -14,6 +14,8 @@ import {
 	hashPassword,
 	invalidateAllSessions,
 	invalidateOtherSessions,
+	listApiTokens,
+	revokeAllApiTokens,
 	verifyPassword
 } from './auth';
 import { hashSecret, newId, newSecret } from './ids';
@@ -279,8 +281,20 @@ export function resetByToken(token: string) {
 	return { ok: true as const, reset: row };
 }
 
-/** Sets the new password, uses up the link and signs the account out everywhere. */
-export async function resetPassword(token: string, password: string) {
+/** The account's live API tokens, by name and prefix only (shown beside the offer to revoke them). */
+export function liveTokens(userId: string) {
+	return listApiTokens(db, userId).map((t) => ({ name: t.name, prefix: t.prefix }));
+}
+
+/**
+ * Sets the new password, uses up the link (and every other reset link of the account) and signs the
+ * account out everywhere; with `revokeTokens`, its API tokens stop working too.
+ */
+export async function resetPassword(
+	token: string,
+	password: string,
+	opts: { revokeTokens?: boolean } = {}
+) {
 	const found = resetByToken(token);
 	if (!found.ok) throw new DomainError(found.message);
 	const passwordHash = await hashPassword(password);
@@ -296,6 +310,7 @@ export async function resetPassword(token: string, password: string) {
 		audit(tx, { userId: found.reset.userId, action: 'password.reset' });
 	});
 	invalidateAllSessions(db, found.reset.userId);
+	if (opts.revokeTokens) revokeAllApiTokens(db, found.reset.userId);
 	return found.reset.userId;
 }
 

@@ -1,5 +1,13 @@
 import { redirect } from '@sveltejs/kit';
-import { deleteSessionCookie, invalidateAllSessions, invalidateSession } from '$lib/server/auth';
+import { superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { signOutEverywhereSchema } from '$lib/schemas/auth';
+import {
+	deleteSessionCookie,
+	invalidateAllSessions,
+	invalidateSession,
+	revokeAllApiTokens
+} from '$lib/server/auth';
 import { db } from '$lib/server/db';
 import * as guards from '$lib/server/guards';
 import type { Actions, PageServerLoad } from './$types';
@@ -16,9 +24,11 @@ export const actions: Actions = {
 		deleteSessionCookie(event.cookies, event.url.protocol === 'https:');
 		redirect(303, '/signin');
 	},
-	everywhere: (event) => {
+	everywhere: async (event) => {
 		const user = guards.requireUser(event);
+		const form = await superValidate(event.request, zod4(signOutEverywhereSchema));
 		invalidateAllSessions(db, user.id);
+		if (form.valid && form.data.revokeTokens) revokeAllApiTokens(db, user.id);
 		deleteSessionCookie(event.cookies, event.url.protocol === 'https:');
 		redirect(303, '/signin?signedOut=all');
 	}
