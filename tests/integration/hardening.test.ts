@@ -373,7 +373,9 @@ describe('links that cannot be abused', () => {
 			(m) => m.to.includes(email) && /MT27-03/.test(m.subject)
 		);
 		const cruiseLink = cruiseMail.text.match(/\/invite\/(\w+)/)![1];
-		expect((await action('/admin/users', admin!, { email, role: 'member' })).status).toBe(200);
+		expect((await action('/admin/users?/invite', admin!, { email, role: 'member' })).status).toBe(
+			200
+		);
 		const siteMail = await waitForMail(
 			srv.mailDir,
 			(m) => m.to.includes(email) && !/MT27-03/.test(m.subject)

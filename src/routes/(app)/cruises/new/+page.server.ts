@@ -30,7 +30,9 @@ export const actions: Actions = {
 			id = cruises.create(user.id, form.data);
 		} catch (e) {
 			if (e instanceof DomainError)
-				return setError(form, (e.field ?? '') as 'code', e.message, { status: 409 });
+				return setError(form, (e.field ?? '') as 'code', e.message, {
+					status: e.field === 'code' ? 409 : 400
+				});
 			throw e;
 		}
 		redirect(303, `/cruises/${id}`);

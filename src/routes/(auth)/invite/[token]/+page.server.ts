@@ -27,6 +27,12 @@ export const actions: Actions = {
 		form.data.password = '';
 		form.data.confirm = '';
 		if (!form.valid) return fail(400, { form });
+		let client = 'unknown';
+		try {
+			client = event.getClientAddress();
+		} catch {
+			// no address header (a direct local request behind ADDRESS_HEADER): one shared bucket
+		}
 		let userId: string;
 		try {
 			userId = (
@@ -35,7 +41,7 @@ export const actions: Actions = {
 					form.data.name,
 					password,
 					event.locals.user?.id ?? null,
-					event.getClientAddress()
+					client
 				)
 			).id;
 		} catch (e) {

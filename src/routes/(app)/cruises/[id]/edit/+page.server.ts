@@ -47,7 +47,9 @@ export const actions: Actions = {
 			cruises.update(user.id, c.id, form.data);
 		} catch (e) {
 			if (e instanceof DomainError)
-				return setError(form, (e.field ?? '') as 'code', e.message, { status: 409 });
+				return setError(form, (e.field ?? '') as 'code', e.message, {
+					status: e.field === 'code' ? 409 : 400
+				});
 			throw e;
 		}
 		return message(form, { type: 'ok', text: 'Saved.' });
