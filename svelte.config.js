@@ -27,7 +27,13 @@ const config = {
 				'child-src': ['self', 'blob:'],
 				'object-src': ['none'],
 				'base-uri': ['self'],
-				'form-action': ['self'],
+				// the payment step hands over to the payment service's hosted page (the local one on loopback)
+				'form-action': [
+					'self',
+					'https://checkout.stripe.com',
+					'http://127.0.0.1:*',
+					'http://localhost:*'
+				],
 				'frame-ancestors': ['none']
 			}
 		},

@@ -540,7 +540,7 @@ function seedPublication(db: Db) {
 				status: 'failed',
 				attempts: 8,
 				sentAt: null,
-				lastError: '550 5.1.1 mailbox unavailable (demo)'
+				lastError: '[permanent] 550 5.1.1 mailbox unavailable (demo)'
 			})
 			.where(eq(t.notice.id, failed.id))
 			.run();
