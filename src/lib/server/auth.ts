@@ -2,8 +2,9 @@
 // 30-day sliding expiry renewed when half used. Passwords hashed with argon2id.
 import { hash, verify } from '@node-rs/argon2';
 import type { Cookies } from '@sveltejs/kit';
-import { and, eq, isNull, ne } from 'drizzle-orm';
+import { and, eq, isNull, ne, sql } from 'drizzle-orm';
 import type { Db } from './db/client';
+import { prepared } from './db/prepared';
 import { apiToken, session, user, type GlobalRole } from './db/schema';
 import { hashSecret, newId, newSecret } from './ids';
 
@@ -64,12 +65,14 @@ export function validateSessionToken(
 	token: string
 ): { user: SessionUser; session: SessionInfo } | null {
 	const id = hashSecret(token);
-	const row = db
-		.select({ user: userColumns, expiresAt: session.expiresAt })
-		.from(session)
-		.innerJoin(user, eq(session.userId, user.id))
-		.where(eq(session.id, id))
-		.get();
+	const row = prepared(db, 'auth.session', (d) =>
+		d
+			.select({ user: userColumns, expiresAt: session.expiresAt })
+			.from(session)
+			.innerJoin(user, eq(session.userId, user.id))
+			.where(eq(session.id, sql.placeholder('id')))
+			.prepare()
+	).get({ id });
 	if (!row) return null;
 	const now = Date.now();
 	if (now >= row.expiresAt.getTime()) {
@@ -122,6 +125,9 @@ export function deleteSessionCookie(cookies: Cookies, secure: boolean) {
 
 export const API_TOKEN_PREFIX = 'wlt_';
 
+/** How finely a token's last use is recorded. */
+export const TOKEN_USE_RESOLUTION_MS = 60_000;
+
 export function createApiToken(db: Db, userId: string, name: string) {
 	const token = API_TOKEN_PREFIX + newSecret();
 	const row = {
@@ -140,14 +146,23 @@ export function validateApiToken(
 	token: string
 ): { user: SessionUser; session: SessionInfo } | null {
 	const tokenHash = hashSecret(token);
-	const row = db
-		.select({ user: userColumns, id: apiToken.id })
-		.from(apiToken)
-		.innerJoin(user, eq(apiToken.userId, user.id))
-		.where(and(eq(apiToken.tokenHash, tokenHash), isNull(apiToken.revokedAt)))
-		.get();
+	const row = prepared(db, 'auth.token', (d) =>
+		d
+			.select({ user: userColumns, id: apiToken.id, lastUsedAt: apiToken.lastUsedAt })
+			.from(apiToken)
+			.innerJoin(user, eq(apiToken.userId, user.id))
+			.where(and(eq(apiToken.tokenHash, sql.placeholder('hash')), isNull(apiToken.revokedAt)))
+			.prepare()
+	).get({ hash: tokenHash });
 	if (!row) return null;
-	db.update(apiToken).set({ lastUsedAt: new Date() }).where(eq(apiToken.id, row.id)).run();
+	// "Last used" to the minute: a script polling the API does not write on every request (which
+	// would also start a new database revision and empty the read caches each time).
+	const now = Date.now();
+	if (!row.lastUsedAt || now - row.lastUsedAt.getTime() >= TOKEN_USE_RESOLUTION_MS)
+		db.update(apiToken)
+			.set({ lastUsedAt: new Date(now) })
+			.where(eq(apiToken.id, row.id))
+			.run();
 	return {
 		user: row.user,
 		session: { id: row.id, expiresAt: new Date(8.64e15), via: 'token' }

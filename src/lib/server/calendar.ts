@@ -200,6 +200,6 @@ export function ics(
 	d: Pick<Db, 'select'> = appDb
 ): string {
 	const list = items(cruiseId, now, d);
-	const code = timelines.load(cruiseId, d).cruise.code;
+	const code = timelines.build(cruiseId, d).data.cruise.code;
 	return render(cruiseId, code, list, sequencesAgainst(published, list), now);
 }

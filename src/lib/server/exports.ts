@@ -120,6 +120,8 @@ export async function file(
 	format: string
 ): Promise<ExportFile> {
 	try {
+		// The build the documents below read, made off the event loop when it is not at hand.
+		await timelines.buildOffLoop(cruiseId);
 		if (kind === 'route') {
 			if (!(ROUTE_FORMATS as readonly string[]).includes(format))
 				throw new ApiError(

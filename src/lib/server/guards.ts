@@ -1,9 +1,10 @@
 // Authority at every door: every load, action and API handler calls one of these. Pages are sent to
 // sign-in; API callers get 401 JSON (see api.ts). A layout load alone is never the gate.
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import type { SessionUser } from './auth';
 import { db } from './db';
+import { prepared } from './db/prepared';
 import { cruise, cruiseMember, type Cruise, type CruiseRole } from './db/schema';
 
 type Event = Pick<RequestEvent, 'locals' | 'url'>;
@@ -47,11 +48,18 @@ export interface CruiseAccess {
 }
 
 export function cruiseRoleOf(userId: string, cruiseId: string): CruiseRole | null {
-	const row = db
-		.select({ role: cruiseMember.role })
-		.from(cruiseMember)
-		.where(and(eq(cruiseMember.cruiseId, cruiseId), eq(cruiseMember.userId, userId)))
-		.get();
+	const row = prepared(db, 'guards.role', (d) =>
+		d
+			.select({ role: cruiseMember.role })
+			.from(cruiseMember)
+			.where(
+				and(
+					eq(cruiseMember.cruiseId, sql.placeholder('cruiseId')),
+					eq(cruiseMember.userId, sql.placeholder('userId'))
+				)
+			)
+			.prepare()
+	).get({ cruiseId, userId });
 	return row?.role ?? null;
 }
 
@@ -65,7 +73,13 @@ export function requireCruiseRole(
 	...roles: CruiseRole[]
 ): CruiseAccess {
 	const user = requireUser(event);
-	const found = db.select().from(cruise).where(eq(cruise.id, cruiseId)).get();
+	const found = prepared(db, 'guards.cruise', (d) =>
+		d
+			.select()
+			.from(cruise)
+			.where(eq(cruise.id, sql.placeholder('id')))
+			.prepare()
+	).get({ id: cruiseId });
 	if (!found) error(404, 'No such cruise.');
 	const role = cruiseRoleOf(user.id, cruiseId);
 	const isAdmin = user.role === 'admin';

@@ -19,6 +19,7 @@ import {
 	type NewFeature
 } from '$lib/schemas/plan';
 import { ApiError } from './api';
+import { deepFreeze } from '../freeze';
 import { audit } from './audit';
 import { db } from './db';
 import type { Db } from './db/client';
@@ -37,6 +38,7 @@ import {
 	type SurveyLine,
 	type Vessel
 } from './db/schema';
+import { RevisionMemo } from './db/revision';
 import { newId } from './ids';
 import {
 	planSettings,
@@ -176,15 +178,35 @@ export interface PlanCollection extends FeatureCollection {
 }
 
 /** The timeline's fit for the plan API: the chart shows when an edit pushes the plan past it. */
-export function fit(cruiseId: string) {
-	return timelines.fitToApi(timelines.fit(timelines.build(cruiseId)));
+export async function fit(cruiseId: string) {
+	return timelines.fitToApi(timelines.fit(await timelines.buildOffLoop(cruiseId)));
 }
 
-export async function collection(cruiseId: string, canEdit: boolean): Promise<PlanCollection> {
+/**
+ * The plan as GeoJSON, one per cruise, edit right and database revision: readers of an unchanged
+ * plan share one answer (read-only), computed off the event loop.
+ */
+const collections = new RevisionMemo<Promise<PlanCollection>>(64);
+
+export function collection(cruiseId: string, canEdit: boolean): Promise<PlanCollection> {
+	return collections.get(db, `${cruiseId}:${canEdit}`, () => readCollection(cruiseId, canEdit));
+}
+
+/** The collection as JSON text, serialised once per shared answer. */
+const serialised = new WeakMap<PlanCollection, string>();
+
+export async function collectionJson(cruiseId: string, canEdit: boolean): Promise<string> {
+	const doc = await collection(cruiseId, canEdit);
+	let text = serialised.get(doc);
+	if (text === undefined) serialised.set(doc, (text = JSON.stringify(doc)));
+	return text;
+}
+
+async function readCollection(cruiseId: string, canEdit: boolean): Promise<PlanCollection> {
 	const r = rows(cruiseId);
 	const s = planSettings({ ...r, ridges: [] });
 	const v = await plancache.values(r);
-	return {
+	return deepFreeze({
 		type: 'FeatureCollection',
 		cruise: {
 			id: r.cruise.id,
@@ -192,7 +214,7 @@ export async function collection(cruiseId: string, canEdit: boolean): Promise<Pl
 			depthModel: r.cruise.depthModel,
 			canEdit,
 			vessel: s.vessel,
-			fit: fit(cruiseId)
+			fit: await fit(cruiseId)
 		},
 		features: [
 			...r.ridges.map(ridgeFeature),
@@ -200,7 +222,7 @@ export async function collection(cruiseId: string, canEdit: boolean): Promise<Pl
 			...r.lines.map((l) => lineFeature(l, v.lines[l.id])),
 			...r.stations.map((st) => stationFeature(st, v.stations[st.id]))
 		]
-	};
+	});
 }
 
 /** Finds which table holds a feature id on this cruise. */

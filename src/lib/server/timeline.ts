@@ -32,6 +32,8 @@ import {
 	type Station,
 	type SurveyLine
 } from './db/schema';
+import { deepFreeze } from '../freeze';
+import { RevisionMemo } from './db/revision';
 import { newId } from './ids';
 import * as plancache from './plancache';
 import type { planSettings } from './plancompute';
@@ -281,12 +283,40 @@ export function load(cruiseId: string, d: Reader = appDb): TimelineData {
 	};
 }
 
-export function build(
-	cruiseId: string,
-	d: Reader = appDb
-): { data: TimelineData; timeline: Timeline | null } {
+export interface Built {
+	data: TimelineData;
+	timeline: Timeline | null;
+}
+
+function compute(cruiseId: string, d: Reader): Built {
 	const data = load(cruiseId, d);
 	return { data, timeline: data.input ? buildTimeline(data.input) : null };
+}
+
+/**
+ * Builds of the app's database, one per cruise and database revision: every page, export and API
+ * answer of an unchanged plan shares one build (read-only: frozen, so a caller that would change it
+ * fails loudly instead of changing it for the others).
+ */
+const builds = new RevisionMemo<Built>(64);
+
+/** The cruise's timeline: its data as stored and the engine's timing of it. */
+export function build(cruiseId: string, d: Reader = appDb): Built {
+	if (d !== appDb) return compute(cruiseId, d);
+	return builds.get(appDb, cruiseId, () => deepFreeze(compute(cruiseId, appDb)));
+}
+
+/**
+ * The same, for request handlers: when the plan's station durations are not cached yet they are
+ * computed in the engine pool (within its time budget) rather than on the event loop.
+ */
+export async function buildOffLoop(cruiseId: string): Promise<Built> {
+	if (!builds.has(appDb, cruiseId)) {
+		const c = appDb.select().from(cruise).where(eq(cruise.id, cruiseId)).get();
+		if (!c) throw new ApiError(404, 'No such cruise.');
+		await plancache.values(planRows(appDb, c));
+	}
+	return build(cruiseId);
 }
 
 export { eventKeys, returnAt } from '../schedule';

@@ -5,13 +5,13 @@ import * as timelines from '$lib/server/timeline';
 import { WEATHER_MARGIN_RULE } from '$lib/engine/timeline';
 import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = (event) => {
+export const load: PageServerLoad = async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
 	const d = cruises.detail(access.cruise.id);
 	if (!d) error(404, 'No such cruise.');
 	// Every date and figure here comes from the one timeline build (as on the timeline, the print
 	// page and the calendar); the cruise form's departure/return are the allocated window.
-	const built = timelines.build(access.cruise.id);
+	const built = await timelines.buildOffLoop(access.cruise.id);
 	const t = built.timeline;
 	const fit = timelines.fit(built);
 	return {

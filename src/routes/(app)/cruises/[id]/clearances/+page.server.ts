@@ -11,7 +11,7 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
-	const built = timelines.build(access.cruise.id);
+	const built = await timelines.buildOffLoop(access.cruise.id);
 	const cl = clearances.list(access.cruise.id, built);
 	const returnAt = built.timeline
 		? timelines.returnAt(built.timeline)

@@ -17,7 +17,7 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
-	const data = timelines.load(access.cruise.id);
+	const { data } = await timelines.buildOffLoop(access.cruise.id);
 	return {
 		canEdit: access.isAdmin || access.role === 'chief_scientist',
 		input: data.input,

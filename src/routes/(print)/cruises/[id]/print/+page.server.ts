@@ -6,11 +6,11 @@ import * as timelines from '$lib/server/timeline';
 import { WEATHER_MARGIN_RULE } from '$lib/engine/timeline';
 import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = (event) => {
+export const load: PageServerLoad = async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
 	const d = cruises.detail(access.cruise.id);
 	if (!d) error(404, 'No such cruise.');
-	const built = timelines.build(access.cruise.id);
+	const built = await timelines.buildOffLoop(access.cruise.id);
 	const speeds = Object.fromEntries(
 		(built.data.input?.items ?? []).map((i) => [i.id, i.kind === 'line' ? i.surveySpeedKn : null])
 	);

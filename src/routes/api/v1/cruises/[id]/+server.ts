@@ -2,10 +2,13 @@ import { json } from '@sveltejs/kit';
 import { api, ApiError } from '$lib/server/api';
 import * as cruises from '$lib/server/cruises';
 import * as guards from '$lib/server/guards';
+import * as timelines from '$lib/server/timeline';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = api((event) => {
+export const GET: RequestHandler = api(async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
+	// The build `toApi` reads, made off the event loop when it is not at hand.
+	await timelines.buildOffLoop(access.cruise.id);
 	const d = cruises.detail(access.cruise.id);
 	if (!d) throw new ApiError(404, 'No such cruise.');
 	return json({

@@ -4,9 +4,9 @@ import * as guards from '$lib/server/guards';
 import * as timelines from '$lib/server/timeline';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = api((event) => {
+export const GET: RequestHandler = api(async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
-	const { data, timeline } = timelines.build(access.cruise.id);
+	const { data, timeline } = await timelines.buildOffLoop(access.cruise.id);
 	if (!timeline)
 		throw new ApiError(
 			409,

@@ -10,5 +10,5 @@ export const POST: RequestHandler = api(async (event) => {
 	const input = await readJson(event, newFeatureSchema);
 	// `fit` (RFC 7946 foreign member): the plan against its allocation after this change.
 	const created = await plan.create(user.id, cruise.id, input);
-	return json({ ...created, fit: plan.fit(cruise.id) }, { status: 201 });
+	return json({ ...created, fit: await plan.fit(cruise.id) }, { status: 201 });
 });

@@ -6,9 +6,9 @@ import { orderSchema } from '$lib/schemas/timeline';
 import type { RequestHandler } from './$types';
 
 /** The order of work: plan items in sequence, each line with its running direction. */
-export const GET: RequestHandler = api((event) => {
+export const GET: RequestHandler = api(async (event) => {
 	const access = guards.requireCruiseRole(event, event.params.id);
-	const data = timelines.load(access.cruise.id);
+	const { data } = await timelines.buildOffLoop(access.cruise.id);
 	return json({
 		items: data.order.map((o) => ({ id: o.id, kind: o.kind, name: o.name, reversed: o.reversed }))
 	});
@@ -18,6 +18,6 @@ export const PUT: RequestHandler = api(async (event) => {
 	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 	const body = await readJson(event, orderSchema);
 	timelines.setOrder(user.id, cruise.id, body.items);
-	const { timeline } = timelines.build(cruise.id);
+	const { timeline } = await timelines.buildOffLoop(cruise.id);
 	return json(timeline ? timelines.toApi(timeline) : { events: [], totals: null });
 });

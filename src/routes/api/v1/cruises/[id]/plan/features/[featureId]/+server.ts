@@ -14,7 +14,7 @@ export const PATCH: RequestHandler = api(async (event) => {
 	const { user, cruise } = guards.requireCruiseRole(event, event.params.id, 'chief_scientist');
 	const patch = await readJson(event, featurePatchSchema);
 	const updated = await plan.update(user.id, cruise.id, event.params.featureId, patch);
-	return json({ ...updated, fit: plan.fit(cruise.id) });
+	return json({ ...updated, fit: await plan.fit(cruise.id) });
 });
 
 export const DELETE: RequestHandler = api((event) => {
